@@ -1,0 +1,19 @@
+import type { NextConfig } from "next";
+
+const nextConfig: NextConfig = {
+  // Server-only packages that must not be bundled (native bindings, large CJS trees).
+  serverExternalPackages: [
+    "@libsql/client",
+    "libsql",
+    "@react-pdf/renderer",
+    "@signpdf/signpdf",
+    "@signpdf/signer-p12",
+    "@signpdf/placeholder-plain",
+    "node-forge",
+    "nodemailer",
+    "bcryptjs",
+  ],
+  poweredByHeader: false,
+};
+
+export default nextConfig;
