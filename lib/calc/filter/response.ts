@@ -1,0 +1,219 @@
+/**
+ * Frequency response of a designed filter from its actual component values: magnitude, phase and
+ * group delay over a log sweep, with the ideal op-amp (from the section polynomials) and with the
+ * single-pole op-amp model (by nodal analysis, mna.ts); and fast −3 dB / ripple-edge finders on
+ * |H(jω)|² of the section polynomials (used for the nominal design and for every Monte Carlo
+ * trial: a bracket scan followed by the Illinois false-position iteration in log ω, ~15
+ * evaluations instead of a dense sweep).
+ *
+ * Units: frequencies in Hz unless named omega (rad/s); magnitude in V/V or dB; phase in degrees;
+ * group delay in s.
+ *
+ * Reference for the Illinois method: M. Dowell, P. Jarratt, "A modified regula falsi method for
+ * computing the root of an equation", BIT 11 (1971) 168–174.
+ */
+import { designCircuit, sectionCircuit, type FilterDesign } from "./design";
+import { compileCircuit, type OpAmpModel } from "./mna";
+import type { FilterKind } from "./topology";
+
+const TWO_PI = 2 * Math.PI;
+
+/** n log-spaced frequencies from fStart to fStop inclusive, Hz. */
+export function logSweep(fStart: number, fStop: number, n: number): number[] {
+  const out: number[] = [];
+  const a = Math.log(fStart), b = Math.log(fStop);
+  for (let i = 0; i < n; i++) out.push(Math.exp(a + ((b - a) * i) / Math.max(1, n - 1)));
+  return out;
+}
+
+/**
+ * |H(jω)|² of a cascade of sections given as packed coefficients
+ * c[5k … 5k+4] = [b0, b1, b2, a1, a2] (a0 = 1), at ω (rad/s).
+ */
+export function cascadeMag2(c: ArrayLike<number>, nSections: number, omega: number): number {
+  const w2 = omega * omega;
+  let m = 1;
+  for (let k = 0; k < nSections; k++) {
+    const o = 5 * k;
+    const nr = c[o] - c[o + 2] * w2, ni = c[o + 1] * omega;
+    const dr = 1 - c[o + 4] * w2, di = c[o + 3] * omega;
+    m *= (nr * nr + ni * ni) / (dr * dr + di * di);
+  }
+  return m;
+}
+
+/** Passband reference |H|² of a packed cascade: DC (low-pass) or ω → ∞ (high-pass), (V/V)². */
+export function cascadeReferenceMag2(kind: FilterKind, c: ArrayLike<number>, nSections: number): number {
+  let m = 1;
+  for (let k = 0; k < nSections; k++) {
+    const o = 5 * k;
+    let g: number;
+    if (kind === "lowpass") g = c[o];
+    else if (c[o + 4] !== 0) g = c[o + 2] / c[o + 4];
+    else g = c[o + 1] / c[o + 3];
+    m *= g * g;
+  }
+  return m;
+}
+
+/**
+ * The frequency (rad/s) where r(ω) = level, at the transition into the stopband: for a low-pass
+ * the highest crossing (scanning down from above), for a high-pass the lowest (scanning up).
+ *
+ * @param ratio r(ω): |H(jω)|² relative to the passband reference
+ * @param level target ratio, e.g. 0.5 for −3.0103 dB
+ * @param guess starting estimate, rad/s
+ * @param falling true for low-pass behaviour (r falls with ω at the edge)
+ * @returns crossing, rad/s; NaN if none is found (unstable or degenerate response)
+ */
+export function findEdge(ratio: (omega: number) => number, level: number, guess: number, falling: boolean): number {
+  // map to a "falling" problem in x = ±ln ω
+  const sgn = falling ? 1 : -1;
+  const f = (x: number): number => Math.log(ratio(Math.exp(sgn * x))) - Math.log(level);
+  const x0 = sgn * Math.log(guess);
+  let hi = x0 + 0.4;
+  let fh = f(hi);
+  for (let i = 0; i < 60 && !(fh < 0); i++) {
+    hi += 0.4;
+    fh = f(hi);
+  }
+  if (!(fh < 0)) return NaN;
+  const step = Math.log(1.02);
+  let lo = hi - step;
+  let fl = f(lo);
+  for (let i = 0; i < 2000 && fl < 0; i++) {
+    hi = lo;
+    fh = fl;
+    lo -= step;
+    fl = f(lo);
+  }
+  if (!(fl >= 0) || !Number.isFinite(fl)) return NaN;
+  // Illinois iteration on [lo, hi] with f(lo) ≥ 0 > f(hi)
+  let side = 0;
+  for (let i = 0; i < 60; i++) {
+    const x = fl === fh ? 0.5 * (lo + hi) : (lo * fh - hi * fl) / (fh - fl);
+    const fx = f(x);
+    if (!Number.isFinite(fx)) return NaN;
+    if (fx >= 0) {
+      lo = x; fl = fx;
+      if (side === 1) fh /= 2;
+      side = 1;
+    } else {
+      hi = x; fh = fx;
+      if (side === -1) fl /= 2;
+      side = -1;
+    }
+    if (hi - lo < 1e-13 || Math.abs(fx) < 1e-14) break;
+  }
+  const x = fl === fh ? 0.5 * (lo + hi) : (lo * fh - hi * fl) / (fh - fl);
+  return Math.exp(sgn * x);
+}
+
+/** Packed ideal coefficients of a design (5 per section). */
+export function packedCoefficients(design: FilterDesign): Float64Array {
+  const c = new Float64Array(5 * design.sections.length);
+  design.sections.forEach((s, k) => c.set(s.coefficients, 5 * k));
+  return c;
+}
+
+/**
+ * −3.0103 dB frequency (Hz) of a low- or high-pass design from its ideal section polynomials,
+ * relative to the passband reference (DC / ∞). For a band-pass design: its centre frequency.
+ */
+export function minus3dBFrequency(design: FilterDesign, c: ArrayLike<number> = packedCoefficients(design)): number {
+  const n = design.sections.length;
+  if (design.kind === "bandpass") return 1 / (TWO_PI * Math.sqrt(c[4]));
+  const ref = cascadeReferenceMag2(design.kind, c, n);
+  return findEdge((w) => cascadeMag2(c, n, w) / ref, 0.5, TWO_PI * design.targetFrequency, design.kind === "lowpass") / TWO_PI;
+}
+
+/**
+ * Achieved Chebyshev ripple-band edge (Hz): where the response last leaves the ripple band,
+ * |H| = reference (even orders, DC at the ripple bottom) or reference − ripple (odd orders).
+ */
+export function rippleEdgeFrequency(design: FilterDesign, rippleDb: number, c: ArrayLike<number> = packedCoefficients(design)): number {
+  const n = design.sections.length;
+  if (design.kind === "bandpass") return NaN;
+  const order = design.prototype?.order ?? 1;
+  const level = order % 2 === 1 ? 10 ** (-rippleDb / 10) : 1 - 1e-12;
+  const ref = cascadeReferenceMag2(design.kind, c, n);
+  return findEdge((w) => cascadeMag2(c, n, w) / ref, level, TWO_PI * design.targetRippleEdge, design.kind === "lowpass") / TWO_PI;
+}
+
+/** Response of a design over a sweep. */
+export interface SweepResponse {
+  /** Frequencies, Hz. */
+  f: number[];
+  /** |H|, V/V. */
+  mag: number[];
+  /** 20·log10|H|, dB. */
+  db: number[];
+  /** Unwrapped phase, degrees. */
+  phase: number[];
+  /** Group delay −dφ/dω, s. */
+  delay: number[];
+  /** |H| at the output of each section (cumulative), V/V: perSection[k][i]. */
+  perSection: number[][];
+}
+
+/**
+ * Evaluate a design over frequencies f (Hz) with an op-amp model, from the chosen component
+ * values (or the given values). Uses nodal analysis per section (sections are driven by ideal
+ * op-amp outputs, so they do not load each other); group delay by a central difference of the
+ * phase with a relative step of 1e-5.
+ */
+export function sweepResponse(design: FilterDesign, f: readonly number[], model: OpAmpModel, values: ArrayLike<number> = design.values): SweepResponse {
+  const solvers = design.sections.map((s) => compileCircuit(sectionCircuit(design, s, values), model));
+  const h = 1e-5;
+  const out: SweepResponse = { f: [...f], mag: [], db: [], phase: [], delay: [], perSection: design.sections.map(() => []) };
+  let prevPhase = 0;
+  let unwrap = 0;
+  f.forEach((fi, i) => {
+    const w = TWO_PI * fi;
+    let re = 1, im = 0;
+    let dArg = 0;
+    solvers.forEach((sv, k) => {
+      const [a, b] = sv.solve(w);
+      const nr = re * a - im * b;
+      im = re * b + im * a;
+      re = nr;
+      out.perSection[k].push(Math.hypot(re, im));
+      const [pa, pb] = sv.solve(w * (1 + h));
+      const [ma, mb] = sv.solve(w * (1 - h));
+      // arg(H+/H−) = arg(H+ · conj(H−))
+      dArg += Math.atan2(pb * ma - pa * mb, pa * ma + pb * mb);
+    });
+    const mag = Math.hypot(re, im);
+    let ph = (Math.atan2(im, re) * 180) / Math.PI;
+    if (i > 0) {
+      while (ph + unwrap - prevPhase > 180) unwrap -= 360;
+      while (ph + unwrap - prevPhase < -180) unwrap += 360;
+    }
+    ph += unwrap;
+    prevPhase = ph;
+    out.mag.push(mag);
+    out.db.push(20 * Math.log10(Math.max(mag, 1e-300)));
+    out.phase.push(ph);
+    out.delay.push(-dArg / (2 * h * w));
+  });
+  return out;
+}
+
+/** Complex response [re, im] of the whole design at one frequency f (Hz) with an op-amp model. */
+export function responseAt(design: FilterDesign, fHz: number, model: OpAmpModel, values: ArrayLike<number> = design.values): [number, number] {
+  const sv = compileCircuit(designCircuit(design, values), model);
+  return sv.solve(TWO_PI * fHz);
+}
+
+/** |H(j2πf)| (V/V) of the design with a model, as a function for repeated use. */
+export function magnitudeFunction(design: FilterDesign, model: OpAmpModel, values: ArrayLike<number> = design.values): (fHz: number) => number {
+  const solvers = design.sections.map((s) => compileCircuit(sectionCircuit(design, s, values), model));
+  return (fHz: number) => {
+    let m = 1;
+    for (const sv of solvers) {
+      const [a, b] = sv.solve(TWO_PI * fHz);
+      m *= Math.hypot(a, b);
+    }
+    return m;
+  };
+}
