@@ -14,6 +14,8 @@ const nextConfig: NextConfig = {
     "bcryptjs",
   ],
   poweredByHeader: false,
+  // forbidden() / unauthorized() from next/navigation for role checks in pages.
+  experimental: { authInterrupts: true },
 };
 
 export default nextConfig;
