@@ -392,7 +392,7 @@ export function designFilter(spec: FilterSpec): FilterDesign {
       values.push(chosen.values[j]);
     });
     const coefficients = new Float64Array(5);
-    variant.coefficients(values, offset, coefficients);
+    variant.coefficients(values, offset, coefficients, 0);
     const sign = plan.topology === "mfb" || plan.topology === "inverting" || plan.topology === "mfb-bp" ? -1 : 1;
     const target: SectionFigures = { f0: plan.w0 / TWO_PI, q: plan.q, gain: sign * plan.gain };
     targetGain *= target.gain;

@@ -53,8 +53,8 @@ export interface SectionCoefficients {
   a2: number;
 }
 
-/** Writes the five coefficients [b0, b1, b2, a1, a2] of a section into out, from values v[o…]. */
-export type CoefficientFn = (v: ArrayLike<number>, o: number, out: Float64Array) => void;
+/** Writes the five coefficients [b0, b1, b2, a1, a2] of a section into out[oo…oo+4], from values v[o…]. */
+export type CoefficientFn = (v: ArrayLike<number>, o: number, out: Float64Array, oo: number) => void;
 
 /** One part of a section: local name and what it does. */
 export interface PartRole {
@@ -107,75 +107,75 @@ function amp(
 
 // ---- coefficient functions (ideal op-amp), each derived by nodal analysis ---------------------
 
-const skLowpassUnity: CoefficientFn = (v, o, out) => {
+const skLowpassUnity: CoefficientFn = (v, o, out, oo) => {
   const r1 = v[o], r2 = v[o + 1], c1 = v[o + 2], c2 = v[o + 3];
-  out[0] = 1; out[1] = 0; out[2] = 0;
-  out[3] = c2 * (r1 + r2);
-  out[4] = r1 * r2 * c1 * c2;
+  out[oo + 0] = 1; out[oo + 1] = 0; out[oo + 2] = 0;
+  out[oo + 3] = c2 * (r1 + r2);
+  out[oo + 4] = r1 * r2 * c1 * c2;
 };
-const skLowpassGain: CoefficientFn = (v, o, out) => {
+const skLowpassGain: CoefficientFn = (v, o, out, oo) => {
   const r1 = v[o], r2 = v[o + 1], c1 = v[o + 2], c2 = v[o + 3];
   const k = 1 + v[o + 5] / v[o + 4];
-  out[0] = k; out[1] = 0; out[2] = 0;
-  out[3] = c2 * (r1 + r2) + r1 * c1 * (1 - k);
-  out[4] = r1 * r2 * c1 * c2;
+  out[oo + 0] = k; out[oo + 1] = 0; out[oo + 2] = 0;
+  out[oo + 3] = c2 * (r1 + r2) + r1 * c1 * (1 - k);
+  out[oo + 4] = r1 * r2 * c1 * c2;
 };
-const mfbLowpass: CoefficientFn = (v, o, out) => {
+const mfbLowpass: CoefficientFn = (v, o, out, oo) => {
   const r1 = v[o], r2 = v[o + 1], r3 = v[o + 2], c1 = v[o + 3], c2 = v[o + 4];
-  out[0] = -r2 / r1; out[1] = 0; out[2] = 0;
-  out[3] = c2 * (r2 + r3 + (r2 * r3) / r1);
-  out[4] = r2 * r3 * c1 * c2;
+  out[oo + 0] = -r2 / r1; out[oo + 1] = 0; out[oo + 2] = 0;
+  out[oo + 3] = c2 * (r2 + r3 + (r2 * r3) / r1);
+  out[oo + 4] = r2 * r3 * c1 * c2;
 };
-const skHighpassUnity: CoefficientFn = (v, o, out) => {
+const skHighpassUnity: CoefficientFn = (v, o, out, oo) => {
   const c1 = v[o], c2 = v[o + 1], r1 = v[o + 2], r2 = v[o + 3];
   const p = r1 * r2 * c1 * c2;
-  out[0] = 0; out[1] = 0; out[2] = p;
-  out[3] = r1 * (c1 + c2);
-  out[4] = p;
+  out[oo + 0] = 0; out[oo + 1] = 0; out[oo + 2] = p;
+  out[oo + 3] = r1 * (c1 + c2);
+  out[oo + 4] = p;
 };
-const skHighpassGain: CoefficientFn = (v, o, out) => {
+const skHighpassGain: CoefficientFn = (v, o, out, oo) => {
   const c1 = v[o], c2 = v[o + 1], r1 = v[o + 2], r2 = v[o + 3];
   const k = 1 + v[o + 5] / v[o + 4];
   const p = r1 * r2 * c1 * c2;
-  out[0] = 0; out[1] = 0; out[2] = k * p;
-  out[3] = r1 * (c1 + c2) + r2 * c2 * (1 - k);
-  out[4] = p;
+  out[oo + 0] = 0; out[oo + 1] = 0; out[oo + 2] = k * p;
+  out[oo + 3] = r1 * (c1 + c2) + r2 * c2 * (1 - k);
+  out[oo + 4] = p;
 };
-const mfbHighpass: CoefficientFn = (v, o, out) => {
+const mfbHighpass: CoefficientFn = (v, o, out, oo) => {
   const c1 = v[o], c2 = v[o + 1], c3 = v[o + 2], r1 = v[o + 3], r2 = v[o + 4];
-  out[0] = 0; out[1] = 0; out[2] = -r1 * r2 * c1 * c2;
-  out[3] = r1 * (c1 + c2 + c3);
-  out[4] = r1 * r2 * c2 * c3;
+  out[oo + 0] = 0; out[oo + 1] = 0; out[oo + 2] = -r1 * r2 * c1 * c2;
+  out[oo + 3] = r1 * (c1 + c2 + c3);
+  out[oo + 4] = r1 * r2 * c2 * c3;
 };
-const rcLowpass = (gain: boolean): CoefficientFn => (v, o, out) => {
-  out[0] = gain ? 1 + v[o + 3] / v[o + 2] : 1; out[1] = 0; out[2] = 0;
-  out[3] = v[o] * v[o + 1];
-  out[4] = 0;
+const rcLowpass = (gain: boolean): CoefficientFn => (v, o, out, oo) => {
+  out[oo + 0] = gain ? 1 + v[o + 3] / v[o + 2] : 1; out[oo + 1] = 0; out[oo + 2] = 0;
+  out[oo + 3] = v[o] * v[o + 1];
+  out[oo + 4] = 0;
 };
-const rcHighpass = (gain: boolean): CoefficientFn => (v, o, out) => {
+const rcHighpass = (gain: boolean): CoefficientFn => (v, o, out, oo) => {
   const tau = v[o] * v[o + 1];
-  out[0] = 0; out[1] = (gain ? 1 + v[o + 3] / v[o + 2] : 1) * tau; out[2] = 0;
-  out[3] = tau;
-  out[4] = 0;
+  out[oo + 0] = 0; out[oo + 1] = (gain ? 1 + v[o + 3] / v[o + 2] : 1) * tau; out[oo + 2] = 0;
+  out[oo + 3] = tau;
+  out[oo + 4] = 0;
 };
-const invLowpass: CoefficientFn = (v, o, out) => {
+const invLowpass: CoefficientFn = (v, o, out, oo) => {
   const r1 = v[o], r2 = v[o + 1], c1 = v[o + 2];
-  out[0] = -r2 / r1; out[1] = 0; out[2] = 0;
-  out[3] = r2 * c1;
-  out[4] = 0;
+  out[oo + 0] = -r2 / r1; out[oo + 1] = 0; out[oo + 2] = 0;
+  out[oo + 3] = r2 * c1;
+  out[oo + 4] = 0;
 };
-const invHighpass: CoefficientFn = (v, o, out) => {
+const invHighpass: CoefficientFn = (v, o, out, oo) => {
   const c1 = v[o], r1 = v[o + 1], r2 = v[o + 2];
-  out[0] = 0; out[1] = -r2 * c1; out[2] = 0;
-  out[3] = r1 * c1;
-  out[4] = 0;
+  out[oo + 0] = 0; out[oo + 1] = -r2 * c1; out[oo + 2] = 0;
+  out[oo + 3] = r1 * c1;
+  out[oo + 4] = 0;
 };
-const mfbBandpass: CoefficientFn = (v, o, out) => {
+const mfbBandpass: CoefficientFn = (v, o, out, oo) => {
   const r1 = v[o], r2 = v[o + 1], r3 = v[o + 2], c1 = v[o + 3], c2 = v[o + 4];
   const rp = (r1 * r2) / (r1 + r2);
-  out[0] = 0; out[1] = (-c1 * r3 * r2) / (r1 + r2); out[2] = 0;
-  out[3] = (c1 + c2) * rp;
-  out[4] = c1 * c2 * r3 * rp;
+  out[oo + 0] = 0; out[oo + 1] = (-c1 * r3 * r2) / (r1 + r2); out[oo + 2] = 0;
+  out[oo + 3] = (c1 + c2) * rp;
+  out[oo + 4] = c1 * c2 * r3 * rp;
 };
 
 const GAIN_PARTS = [R("Ra", "gain-setting resistor, inverting input to ground"), R("Rb", "gain-setting resistor, output to inverting input")];
