@@ -197,6 +197,30 @@ export class StripeEngine {
     this.state.order[id] = this.state.seq;
   }
 
+  private outbox: WEventBase[] | null = null;
+
+  /**
+   * Runs `fn` as one unit: if it throws, the state is restored and none of its events are
+   * sent (a refused request changes nothing, as with Stripe). Events are handed to onEvent
+   * only after `fn` succeeds, in creation order.
+   */
+  atomic<T>(fn: () => T): T {
+    if (this.outbox) return fn();
+    const snapshot = clone(this.state);
+    this.outbox = [];
+    try {
+      const result = fn();
+      const events = this.outbox;
+      this.outbox = null;
+      for (const e of events) this.opts.onEvent(e);
+      return result;
+    } catch (err) {
+      this.state = snapshot;
+      this.outbox = null;
+      throw err;
+    }
+  }
+
   private emit(type: EventType, object: object, ctx: RequestContext, previous?: Record<string, unknown>): WEventBase {
     const event: WEventBase = {
       id: newId("evt"),
@@ -211,7 +235,8 @@ export class StripeEngine {
     };
     this.state.events[event.id] = event;
     this.track(event.id);
-    this.opts.onEvent(event);
+    if (this.outbox) this.outbox.push(event);
+    else this.opts.onEvent(event);
     return event;
   }
 

@@ -378,7 +378,7 @@ export async function startStripeFake(opts: StripeFakeOptions = {}): Promise<Str
     const ctx: RequestContext = { requestId, idempotencyKey: idemKey };
     try {
       const p = new Params(raw);
-      const result = applyExpand(route.handler(url.pathname.match(route.pattern) as RegExpMatchArray, p, ctx), p);
+      const result = engine.atomic(() => applyExpand(route.handler(url.pathname.match(route.pattern) as RegExpMatchArray, p, ctx), p));
       const json = JSON.stringify(result, null, 2);
       // Stripe saves idempotent results once an endpoint has started executing; the fake saves successes.
       if (idemSlot) idem.set(idemSlot, { fingerprint, status: 200, body: json });
@@ -439,8 +439,9 @@ export async function startStripeFake(opts: StripeFakeOptions = {}): Promise<Str
 
     if ((m = path.match(/^\/checkout\/([^/]+)$/)) && method === "GET") {
       try {
-        engine.retrieveCheckoutSession(m[1]);
-        const cs = engine.getCheckout(m[1]);
+        const sessionId = m[1];
+        engine.atomic(() => engine.retrieveCheckoutSession(sessionId));
+        const cs = engine.getCheckout(sessionId);
         const customer = typeof cs.session.customer === "string" ? (engine.state.customers[cs.session.customer] ?? null) : null;
         sendHtml(res, 200, checkoutPage(cs, (pr) => engine.productName(pr), customer));
       } catch (err) {
@@ -451,7 +452,8 @@ export async function startStripeFake(opts: StripeFakeOptions = {}): Promise<Str
     if ((m = path.match(/^\/checkout\/([^/]+)\/pay$/)) && method === "POST") {
       const f = await form();
       try {
-        const target = engine.completeCheckout(m[1], f.str("email")?.trim() || null, f.str("name")?.trim() || null);
+        const sessionId = m[1];
+        const target = engine.atomic(() => engine.completeCheckout(sessionId, f.str("email")?.trim() || null, f.str("name")?.trim() || null));
         redirect(res, target);
       } catch (err) {
         if (err instanceof StripeApiError && err.param === "email") {
@@ -484,13 +486,13 @@ export async function startStripeFake(opts: StripeFakeOptions = {}): Promise<Str
       try {
         const subId = f.reqStr("subscription");
         if (action === "seats") {
-          engine.portalSetSeats(portalId, subId, f.str("quantity") ?? "");
+          engine.atomic(() => engine.portalSetSeats(portalId, subId, f.str("quantity") ?? ""));
           redirect(res, `/portal/${portalId}?done=seats`);
         } else if (action === "cancel") {
-          const sub = engine.portalCancelSubscription(portalId, subId);
+          const sub = engine.atomic(() => engine.portalCancelSubscription(portalId, subId));
           redirect(res, `/portal/${portalId}?done=${sub.status === "canceled" ? "cancel" : "cancel_scheduled"}`);
         } else {
-          engine.portalKeepSubscription(portalId, subId);
+          engine.atomic(() => engine.portalKeepSubscription(portalId, subId));
           redirect(res, `/portal/${portalId}?done=keep`);
         }
       } catch (err) {
@@ -514,7 +516,8 @@ export async function startStripeFake(opts: StripeFakeOptions = {}): Promise<Str
     if ((m = path.match(/^\/invoice\/([^/]+)\/pay$/)) && method === "POST") {
       await form();
       try {
-        engine.payInvoice(m[1], NO_REQUEST);
+        const invoiceId = m[1];
+        engine.atomic(() => engine.payInvoice(invoiceId, NO_REQUEST));
         redirect(res, `/invoice/${m[1]}?done=paid`);
       } catch (err) {
         if (err instanceof StripeApiError && err.status !== 404) {
@@ -617,14 +620,16 @@ export async function startStripeFake(opts: StripeFakeOptions = {}): Promise<Str
         return ok({ idle, pending: deliverer.pendingCount, paused: deliverer.isPaused });
       }
       if ((m = path.match(/^\/_fake\/subscriptions\/([^/]+)\/(fail_payment|renew)$/)) && method === "POST") {
-        const result = m[2] === "fail_payment" ? engine.failPayment(m[1]) : engine.renew(m[1]);
+        const subId = m[1];
+        const result = m[2] === "fail_payment" ? engine.atomic(() => engine.failPayment(subId)) : engine.atomic(() => engine.renew(subId));
         return ok(result);
       }
       if ((m = path.match(/^\/_fake\/checkout\/([^/]+)\/complete$/)) && method === "POST") {
         const email = typeof input.email === "string" ? input.email : null;
         const name = typeof input.name === "string" ? input.name : null;
-        const redirectTo = engine.completeCheckout(m[1], email, name);
-        return ok({ redirect_to: redirectTo, session: engine.retrieveCheckoutSession(m[1]) });
+        const sessionId = m[1];
+        const redirectTo = engine.atomic(() => engine.completeCheckout(sessionId, email, name));
+        return ok({ redirect_to: redirectTo, session: engine.retrieveCheckoutSession(sessionId) });
       }
       return send(res, 404, JSON.stringify({ error: { type: "invalid_request_error", message: `Unknown control endpoint ${method} ${path}. See fakes/stripe/README.md.` } }));
     } catch (err) {
