@@ -14,6 +14,8 @@ const nextConfig: NextConfig = {
     "bcryptjs",
   ],
   poweredByHeader: false,
+  // `npm test` type-checks the whole repository once (npm run typecheck) before building.
+  typescript: { ignoreBuildErrors: true },
   // forbidden() / unauthorized() from next/navigation for role checks in pages.
   experimental: { authInterrupts: true },
 };

@@ -59,11 +59,11 @@ async function waitForHttp(url: string, timeoutMs: number, child: ChildProcess, 
   throw new Error(`${name} did not answer at ${url} within ${timeoutMs} ms (${lastErr})`);
 }
 
-function launch(name: string, cmd: string, args: string[], env: NodeJS.ProcessEnv, logFile?: string): ChildProcess {
+function launch(name: string, cmd: string, args: string[], env: Record<string, string | undefined>, logFile?: string): ChildProcess {
   const out = logFile ? fs.openSync(logFile, "a") : "inherit";
   const child = spawn(cmd, args, {
     cwd: ROOT,
-    env,
+    env: env as NodeJS.ProcessEnv,
     stdio: ["ignore", out, out],
     detached: process.platform !== "win32",
   });
@@ -118,7 +118,7 @@ export async function startStripeFake(opts: { port: number; webhookUrl: string; 
 }
 
 /** The app: `next start` (after `next build`) or `next dev`, with the given environment. */
-export async function startApp(opts: { port: number; env: NodeJS.ProcessEnv; mode: "start" | "dev"; logFile?: string; timeoutMs?: number }): Promise<Service & { url: string }> {
+export async function startApp(opts: { port: number; env: Record<string, string | undefined>; mode: "start" | "dev"; logFile?: string; timeoutMs?: number }): Promise<Service & { url: string }> {
   const bin = path.join(ROOT, "node_modules", "next", "dist", "bin", "next");
   const child = launch("app", process.execPath, [bin, opts.mode, "-p", String(opts.port), "-H", "127.0.0.1"], { ...process.env, ...opts.env }, opts.logFile);
   const url = `http://127.0.0.1:${opts.port}`;
@@ -127,9 +127,9 @@ export async function startApp(opts: { port: number; env: NodeJS.ProcessEnv; mod
 }
 
 /** Run a script to completion (e.g. migrations), inheriting output. */
-export function runScript(args: string[], env: NodeJS.ProcessEnv): Promise<void> {
+export function runScript(args: string[], env: Record<string, string | undefined>): Promise<void> {
   return new Promise((resolve, reject) => {
-    const child = spawn(process.execPath, ["--import", "tsx", ...args], { cwd: ROOT, env: { ...process.env, ...env }, stdio: "inherit" });
+    const child = spawn(process.execPath, ["--import", "tsx", ...args], { cwd: ROOT, env: { ...process.env, ...env } as NodeJS.ProcessEnv, stdio: "inherit" });
     child.on("exit", (code) => (code === 0 ? resolve() : reject(new Error(`${args.join(" ")} exited with ${code}`))));
   });
 }

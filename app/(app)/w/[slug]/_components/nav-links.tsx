@@ -6,7 +6,7 @@ import { usePathname } from "next/navigation";
 export function NavLinks({ items }: { items: Array<{ href: string; label: string }> }) {
   const path = usePathname();
   return (
-    <nav aria-label="Workspace" className="flex items-center gap-0.5">
+    <nav aria-label="Workspace sections" className="flex items-center gap-0.5">
       {items.map((i) => {
         const active = path === i.href || path.startsWith(`${i.href}/`);
         return (
