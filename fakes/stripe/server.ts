@@ -381,7 +381,11 @@ export async function startStripeFake(opts: StripeFakeOptions = {}): Promise<Str
       const result = engine.atomic(() => applyExpand(route.handler(url.pathname.match(route.pattern) as RegExpMatchArray, p, ctx), p));
       const json = JSON.stringify(result, null, 2);
       // Stripe saves idempotent results once an endpoint has started executing; the fake saves successes.
-      if (idemSlot) idem.set(idemSlot, { fingerprint, status: 200, body: json });
+      if (idemSlot) {
+        idem.set(idemSlot, { fingerprint, status: 200, body: json });
+        // The SDK keys every POST; keep the newest 10 000 (Stripe keeps keys for 24 hours).
+        if (idem.size > 10_000) idem.delete(idem.keys().next().value as string);
+      }
       log(`${method} ${url.pathname} 200`);
       send(res, 200, json, baseHeaders);
     } catch (err) {
