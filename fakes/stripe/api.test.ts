@@ -321,6 +321,28 @@ describe("subscriptions, items and invoices", () => {
     expect(bad.param).toBe("quantity");
   });
 
+  it("ends a trial with trial_end=now (first paid invoice) and deletes a subscription item", async () => {
+    const { price } = await catalog();
+    const extra = await stripe.prices.create({ product_data: { name: "Reference pack" }, currency: "usd", unit_amount: 1900, recurring: { interval: "month" } });
+    const cs = await stripe.checkout.sessions.create({
+      mode: "subscription",
+      line_items: [{ price: price.id, quantity: 2 }, { price: extra.id, quantity: 2 }],
+      customer_email: "trial@firm.example",
+      success_url: "http://127.0.0.1:1/ok",
+      subscription_data: { trial_period_days: 30 },
+    });
+    await fetch(`${fake.url}/_fake/checkout/${cs.id}/complete`, { method: "POST" });
+    const subId = (await stripe.checkout.sessions.retrieve(cs.id)).subscription as string;
+    expect((await stripe.subscriptions.retrieve(subId)).status).toBe("trialing");
+    const ended = await stripe.subscriptions.update(subId, { trial_end: "now", expand: ["latest_invoice"] });
+    expect(ended.status).toBe("active");
+    // 2 × 49.00 + 2 × 19.00 = 136.00 USD.
+    expect((ended.latest_invoice as Stripe.Invoice)).toMatchObject({ status: "paid", amount_paid: 13600 });
+    const del = await stripe.subscriptionItems.del(ended.items.data[1].id);
+    expect(del).toMatchObject({ object: "subscription_item", deleted: true });
+    expect((await stripe.subscriptions.retrieve(subId)).items.data.map((i) => i.price.id)).toEqual([price.id]);
+  });
+
   it("lists and retrieves invoices by customer and subscription, with a hosted page", async () => {
     const { sub, customer } = await subscribed(3);
     const invoices = await stripe.invoices.list({ customer });

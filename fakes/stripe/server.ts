@@ -179,6 +179,7 @@ export async function startStripeFake(opts: StripeFakeOptions = {}): Promise<Str
       const e = engine.state.events[id];
       if (e) e.pending_webhooks = 0;
     },
+    onAttempt: (id, a) => log(`webhook ${id} ${engine.state.events[id]?.type ?? ""} → ${a.status ?? a.error ?? "error"}${a.manual ? " (redelivery)" : ""} in ${a.durationMs} ms`),
   });
 
   // ------------------------------------------------------------------ persistence

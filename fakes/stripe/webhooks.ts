@@ -56,6 +56,8 @@ export interface DeliveryOptions {
   getEvent: (id: string) => WEventBase | undefined;
   /** Called when an event's first successful delivery happens. */
   onDelivered: (id: string) => void;
+  /** Called after every attempt (for logging). */
+  onAttempt?: (id: string, attempt: DeliveryAttempt) => void;
 }
 
 /** The delivery queue and its log. */
@@ -241,6 +243,7 @@ export class WebhookDeliverer {
         attempt = { at: started, status: null, ok: false, error: err instanceof Error ? `${err.name}: ${err.message}` : String(err), durationMs: Date.now() - started, manual, url };
       }
     }
+    this.opts.onAttempt?.(eventId, attempt);
     if (rec) {
       rec.attempts.push(attempt);
       if (attempt.ok && rec.status !== "delivered") {
