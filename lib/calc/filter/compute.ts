@@ -22,13 +22,12 @@ import { designFilter, type FilterDesign, type ValuePicker } from "./design";
 import { renameVariables, sectionExpressions } from "./formulas";
 import type { OpAmpModel } from "./mna";
 import { sectionCoefficientsAB } from "./prototype";
-import { findEdge, logSweep, magnitudeFunction, minus3dBFrequency, rippleEdgeFrequency, sweepResponse } from "./response";
+import { logSweep, magnitudeFunction, minus3dBFrequency, minus3dBFrequencyWithModel, rippleEdgeFrequency, sweepResponse } from "./response";
 import { monteCarlo, worstCase, MAX_CORNER_PARTS, type FigureStats } from "./tolerance";
 import { TOPOLOGY_LABELS } from "./topology";
 import type { BandpassInput, CascadeInput } from "./schema";
 import { filterNetlist } from "../spice/filter";
 
-const TWO_PI = 2 * Math.PI;
 /** Resistor range considered sensible, Ω (common practice, no source). */
 export const RESISTOR_RANGE = { min: 100, max: 1e6 } as const;
 /** Smallest capacitor considered safe from stray capacitance, F (common practice, no source). */
@@ -186,7 +185,7 @@ export function computeFilter(kind: "lowpass" | "highpass" | "bandpass", input: 
   } else {
     refFreqReal = kind === "lowpass" ? targetF * 1e-4 : targetF * 10;
     refReal = magReal(refFreqReal);
-    f3Real = findEdge((w) => (magReal(w / TWO_PI) / refReal) ** 2, 0.5, TWO_PI * f3Ideal, kind === "lowpass") / TWO_PI;
+    f3Real = minus3dBFrequencyWithModel(design, real);
   }
   const group = "Overall response";
   out.result("f_target", kind === "bandpass" ? "Target centre frequency" : "Target −3 dB frequency", kind === "bandpass" ? "f₀" : "f₋₃dB", targetF, "Hz", group);
@@ -509,7 +508,9 @@ export function computeFilter(kind: "lowpass" | "highpass" | "bandpass", input: 
         : `The cutoff ${fmt(cascade.cutoff, "Hz")} is the −3 dB frequency relative to the ${kind === "lowpass" ? "DC" : "high-frequency"} gain.`,
       "Prototype poles are computed: Butterworth and Chebyshev from their closed forms, Bessel from the roots of the reverse Bessel polynomial scaled numerically to −3 dB at the cutoff.",
       "Sections are cascaded with the first-order section (odd orders) first and the second-order sections in order of rising Q (common practice: the high-Q sections see a band-limited signal and clip last).",
-      `Passband gain is the ${kind === "lowpass" ? "DC" : "high-frequency"} gain; with the finite-GBW model it is taken at ${kind === "lowpass" ? "f_c/10,000" : "10·f_c"}${kind === "highpass" ? ", since the op-amp's bandwidth eventually closes a high-pass filter's passband" : ""}.`,
+      kind === "lowpass"
+        ? "Passband gain is the DC gain; with the finite-GBW model it is taken at f_c/10,000, and the −3 dB point is relative to it."
+        : "Passband gain is the high-frequency gain; with the finite-GBW model it is reported at 10·f_c (the op-amp's bandwidth eventually closes a high-pass passband), and the −3 dB point is taken relative to the ideal high-frequency gain of the chosen values.",
     );
   } else {
     a.push("The band-pass is one multiple-feedback section with equal capacitors; its gain is the gain at the centre frequency, which needs |G₀| < 2Q².");

@@ -309,3 +309,17 @@ export function magnitudeFunction(design: FilterDesign, model: OpAmpModel, value
     return m;
   };
 }
+
+/**
+ * −3.0103 dB frequency (Hz) of a low- or high-pass design with an op-amp model, by nodal
+ * analysis. Reference: for a low-pass the response at f_target/10,000 (DC within the model); for a
+ * high-pass the ideal high-frequency gain |H(∞)| of the chosen values, because a finite-GBW
+ * op-amp closes the passband at high frequency. NaN when no crossing is found.
+ */
+export function minus3dBFrequencyWithModel(design: FilterDesign, model: OpAmpModel): number {
+  if (design.kind === "bandpass") return NaN;
+  const mag = magnitudeFunction(design, model);
+  const ref = design.kind === "lowpass" ? mag(design.targetFrequency * 1e-4) : Math.sqrt(cascadeReferenceMag2("highpass", packedCoefficients(design), design.sections.length));
+  const guess = minus3dBFrequency(design);
+  return findEdge((w) => (mag(w / TWO_PI) / ref) ** 2, 0.5, TWO_PI * guess, design.kind === "lowpass") / TWO_PI;
+}
