@@ -12,3 +12,4 @@ export * from "./core/output";
 export * from "./core/inputs";
 export * from "./core/demo-parts";
 export { calcTypes, getCalcType, calcTypesOfPack } from "./registry";
+export * from "./core/schema";

@@ -28,10 +28,15 @@ export function margin(actual: number, limit: number, sense: "atMost" | "atLeast
 
 /** Sentences for each outcome of a limit check. */
 export interface LimitMessages {
-  pass: string;
-  fail: string;
+  /** A sentence, or a function building it (only the outcome's sentence is built). */
+  pass: string | (() => string);
+  fail: string | (() => string);
   /** Used when the check passes with less than `warnBelow` margin (defaults to `pass`). */
-  warn?: string;
+  warn?: string | (() => string);
+}
+
+function text(m: string | (() => string)): string {
+  return typeof m === "function" ? m() : m;
 }
 
 /** Options of a limit check. */
@@ -52,11 +57,12 @@ function limitCheck(
   const m = margin(actual, limit, sense);
   const ok = Number.isFinite(actual) && Number.isFinite(limit) && (sense === "atMost" ? actual <= limit : actual >= limit);
   let severity: Severity = ok ? "pass" : "fail";
-  let message = ok ? messages.pass : messages.fail;
+  let pick = ok ? messages.pass : messages.fail;
   if (ok && opts.warnBelow !== undefined && m < opts.warnBelow) {
     severity = "warning";
-    message = messages.warn ?? messages.pass;
+    pick = messages.warn ?? messages.pass;
   }
+  const message = text(pick);
   return { id, severity, title, message, margin: m };
 }
 

@@ -71,12 +71,12 @@ function valueAt(series: ESeries, decade: number, index: number): number {
   const n = m.length;
   const d = decade + Math.floor(index / n);
   const i = ((index % n) + n) % n;
-  return clean(m[i] * 10 ** d);
-}
-
-/** Round away binary noise (2.2 × 1e3 = 2200.0000000000005). */
-function clean(v: number): number {
-  return Number(v.toPrecision(12));
+  // Mantissas have at most two decimals: k = 100·m is an integer, and k·10^(d−2) computed as an
+  // exact integer times (or divided by) an exact power of ten is the double nearest the decimal
+  // value (2.2 kΩ → 2200 exactly, 4.7 nF → 4.7e-9 as typed).
+  const k = Math.round(m[i] * 100);
+  const e = d - 2;
+  return e >= 0 ? k * 10 ** e : k / 10 ** -e;
 }
 
 /** The two members bracketing `value`: lo ≤ value ≤ hi (equal when value is a member). */

@@ -334,6 +334,11 @@ function withMinus(s: string): string {
 /** Round to `digits` significant figures and print without exponent, trailing zeros trimmed. */
 function plain(value: number, digits: number): string {
   if (value === 0) return "0";
+  const quick = value.toPrecision(digits);
+  if (!quick.includes("e")) {
+    const t = quick.includes(".") ? quick.replace(/\.?0+$/, "") : quick;
+    return t === "-0" ? "0" : t;
+  }
   const exp = Math.floor(Math.log10(Math.abs(value)));
   const decimals = Math.max(0, digits - 1 - exp);
   const rounded = Number(value.toPrecision(digits));
@@ -362,6 +367,24 @@ export function formatNumber(value: number, digits = 4): string {
   }
   return withMinus(plain(rounded, digits));
 }
+
+/** Units written in the trade's fixed form: V/s as V/µs, V/√Hz as nV/√Hz, A/√Hz as pA/√Hz. */
+const FIXED_UNITS: Record<string, { scale: number; text: string }> = {
+  "V/s": { scale: 1e6, text: `V/${MICRO}s` },
+  "V/√Hz": { scale: 1e-9, text: "nV/√Hz" },
+  "A/√Hz": { scale: 1e-12, text: "pA/√Hz" },
+};
+
+const PREFIX_SYMBOL: Record<number, string> = Object.fromEntries(FORMAT_PREFIXES.map((p) => [p.exp, p.symbol]));
+
+/** v / 10^exp3 rounded to `digits` significant figures, as text. */
+function scaled(v: number, exp3: number, digits: number): string {
+  const m = exp3 >= 0 ? v / 10 ** exp3 : v * 10 ** -exp3;
+  return m.toPrecision(digits);
+}
+
+/** Units formatted with an engineering prefix. */
+const PREFIXED_UNITS = new Set(["Ω", "F", "H", "Hz", "V", "A", "W", "s", "V/°C", "V/s", "V/√Hz", "A/√Hz", "J", "C"]);
 
 /** Options of {@link formatQuantity}. */
 export interface FormatOptions {
@@ -399,43 +422,34 @@ export function formatQuantity(value: number, unit: string, opts: FormatOptions 
     u = unit === "ppm/°C" || unit === "1/°C" ? "ppm/°C" : "ppm";
   }
   // The trade's fixed units, while the number stays readable; otherwise the prefixed SI unit.
-  const fixed = (scaleTo: number, text: string): string | undefined => {
-    const m = Math.abs(v / scaleTo);
-    return v === 0 || (m >= 1e-3 && m < 1e6) ? `${formatNumber(v / scaleTo, digits)}${UNIT_SEPARATOR}${text}` : undefined;
-  };
-  if (u === "V/s") {
-    const t = fixed(1e6, `V/${MICRO}s`);
-    if (t) return t;
-  }
-  if (u === "V/√Hz") {
-    const t = fixed(1e-9, "nV/√Hz");
-    if (t) return t;
-  }
-  if (u === "A/√Hz") {
-    const t = fixed(1e-12, "pA/√Hz");
-    if (t) return t;
+  const fixedUnit = FIXED_UNITS[u];
+  if (fixedUnit) {
+    const m = Math.abs(v / fixedUnit.scale);
+    if (v === 0 || (m >= 1e-3 && m < 1e6)) return `${formatNumber(v / fixedUnit.scale, digits)}${UNIT_SEPARATOR}${fixedUnit.text}`;
   }
   if (u === "°") return `${formatNumber(v, digits)}°`;
-  if (NO_PREFIX_UNITS.has(u) || !/^[A-Za-zΩ]/.test(u)) {
+  if (!PREFIXED_UNITS.has(u) && (NO_PREFIX_UNITS.has(u) || !/^[A-Za-zΩ]/.test(u))) {
     return u === "" ? formatNumber(v, digits) : `${formatNumber(v, digits)}${UNIT_SEPARATOR}${u}`;
   }
   if (v === 0) return `0${UNIT_SEPARATOR}${u}`;
   if (Math.abs(v) < 1e-15 || Math.abs(v) >= 1e15) return `${formatNumber(v, digits)}${UNIT_SEPARATOR}${u}`;
-  const rounded = Number(v.toPrecision(digits));
-  let exp3 = Math.floor(Math.log10(Math.abs(rounded)) / 3) * 3;
   // Capacitance is never written with a mega prefix ("MF" was once a marking for µF).
   const maxExp = u === "F" ? 0 : 12;
+  let exp3 = Math.floor(Math.floor(Math.log10(Math.abs(v))) / 3) * 3;
   exp3 = Math.max(-15, Math.min(maxExp, exp3));
-  let mant = Number((rounded / 10 ** exp3).toPrecision(digits));
+  let text = scaled(v, exp3, digits);
+  let mant = Number(text);
   if (Math.abs(mant) >= 1000 && exp3 < maxExp) {
     exp3 += 3;
-    mant = Number((rounded / 10 ** exp3).toPrecision(digits));
+    text = scaled(v, exp3, digits);
+    mant = Number(text);
   } else if (Math.abs(mant) < 1 && exp3 > -15) {
     exp3 -= 3;
-    mant = Number((rounded / 10 ** exp3).toPrecision(digits));
+    text = scaled(v, exp3, digits);
+    mant = Number(text);
   }
-  const prefix = FORMAT_PREFIXES.find((p) => p.exp === exp3)?.symbol ?? "";
+  const prefix = PREFIX_SYMBOL[exp3] ?? "";
   const absMant = Math.abs(mant);
-  const text = absMant >= 1e-4 && absMant < 1e7 ? withMinus(plain(mant, digits)) : formatNumber(mant, digits);
+  text = absMant >= 1e-4 && absMant < 1e7 ? withMinus(plain(mant, digits)) : formatNumber(mant, digits);
   return `${text}${UNIT_SEPARATOR}${prefix}${u}`;
 }
