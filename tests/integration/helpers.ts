@@ -6,7 +6,10 @@
 import { encode } from "next-auth/jwt";
 import { runMigrations } from "@/db/migrate";
 import { write } from "@/db/write";
-import { invitations, memberships, projectAccess, projects, users, workspaces, type Role } from "@/db/schema";
+import { calculationHistory, calculations, invitations, memberships, projectAccess, projects, users, workspaces, type Role } from "@/db/schema";
+import { getCalcType } from "@/lib/calc/registry";
+import { runCompute } from "@/lib/calculations/compute";
+import type { RawInputs } from "@/lib/calc/core/types";
 import { newId, newToken, sha256Hex } from "@/lib/ids";
 import { trialFields } from "@/lib/billing/trial";
 import { hashPassword } from "@/lib/auth/password";
@@ -67,6 +70,38 @@ export interface World {
   /** A pending invitation of this workspace and its raw token. */
   invitationId: string;
   invitationToken: string;
+  /** A draft calculation (filter.lowpass, defaults) in project P, prepared by the engineer, version 1. */
+  calcId: string;
+  /** Its one history entry ("create"). */
+  historyId: string;
+  /** A calculation of the other workspace. */
+  otherCalcId: string;
+}
+
+/** Row values for a draft calculation of `typeId` with the type's defaults, computed. */
+export function draftCalculation(opts: { id: string; workspaceId: string; projectId: string; preparedBy: string; number: string; typeId?: string; now: number }) {
+  const type = getCalcType(opts.typeId ?? "filter.lowpass")!;
+  const inputs = structuredClone(type.defaults) as Record<string, unknown>;
+  const r = runCompute(type, inputs as RawInputs);
+  return {
+    id: opts.id,
+    workspaceId: opts.workspaceId,
+    projectId: opts.projectId,
+    number: opts.number,
+    title: `${type.title} test`,
+    typeId: type.id,
+    engineVersion: type.version,
+    status: "draft" as const,
+    revision: "A",
+    inputs,
+    results: r.ok ? (r.output as unknown as Record<string, unknown>) : null,
+    checkSummary: r.ok ? r.summary : null,
+    preparedBy: opts.preparedBy,
+    version: 1,
+    createdAt: opts.now,
+    updatedAt: opts.now,
+    updatedBy: opts.preparedBy,
+  };
 }
 
 /** Two workspaces: A with one member per role and projects P (shared with the client) and Q; B with an outsider owner. */
@@ -89,6 +124,11 @@ export async function makeWorld(opts: { status?: "trialing" | "active" | "cancel
   const membership = { owner: newId(), engineer: newId(), checker: newId(), client: newId() };
   const invitationId = newId();
   const invitationToken = newToken();
+  const calcId = newId();
+  const historyId = newId();
+  const otherCalcId = newId();
+  const calcRow = draftCalculation({ id: calcId, workspaceId: wsA, projectId: projectP, preparedBy: engineer.id, number: "C-001", now });
+  const otherCalcRow = draftCalculation({ id: otherCalcId, workspaceId: wsB, projectId: otherProject, preparedBy: outsider.id, number: "C-001", now });
   const billing =
     opts.status && opts.status !== "trialing"
       ? { subscriptionStatus: opts.status, packs: ["amplifier", "filter", "reference"], seatsPaid: opts.seatsPaid ?? 10, pastDueSince: opts.status === "past_due" ? now : null }
@@ -119,9 +159,26 @@ export async function makeWorld(opts: { status?: "trialing" | "active" | "cancel
         createdAt: now,
         expiresAt: now + 7 * 24 * 3600 * 1000,
       }),
+      db.insert(calculations).values(calcRow),
+      db.insert(calculationHistory).values({
+        id: historyId,
+        workspaceId: wsA,
+        calculationId: calcId,
+        revision: "A",
+        version: 1,
+        event: "create",
+        status: "draft",
+        title: calcRow.title,
+        inputs: calcRow.inputs,
+        results: calcRow.results,
+        engineVersion: calcRow.engineVersion,
+        actorId: engineer.id,
+        at: now,
+      }),
+      db.insert(calculations).values(otherCalcRow),
     ]);
   });
-  return { slug, workspaceId: wsA, owner, engineer, checker, client, outsider, otherSlug, otherWorkspaceId: wsB, projectP, projectQ, otherProject, membership, invitationId, invitationToken };
+  return { slug, workspaceId: wsA, owner, engineer, checker, client, outsider, otherSlug, otherWorkspaceId: wsB, projectP, projectQ, otherProject, membership, invitationId, invitationToken, calcId, historyId, otherCalcId };
 }
 
 type Handler<P> = (req: Request, ctx: { params: Promise<P> }) => Promise<Response>;

@@ -31,7 +31,7 @@ export interface RouteCase {
   handler: unknown;
   params: (w: World) => Record<string, string>;
   body?: (w: World) => unknown;
-  query?: string;
+  query?: string | ((w: World) => string);
   /** Expected status per role. */
   expect: Record<Actor, number>;
   /** Params that point at an object of the OTHER workspace, used with this workspace's slug: 404. */
@@ -184,7 +184,7 @@ async function run(c: RouteCase, w: World, cookie: string | undefined, params = 
     params,
     body: c.body?.(w),
     cookie,
-    url: `http://localhost:3999/${c.file}${c.query ?? ""}`,
+    url: `http://localhost:3999/${c.file}${typeof c.query === "function" ? c.query(w) : (c.query ?? "")}`,
   });
 }
 
