@@ -67,7 +67,7 @@ export function designFromInput(kind: "lowpass" | "highpass" | "bandpass", input
     topology: c.topology,
     firstOrder: c.firstOrder,
     gain: c.fixGain ? (c.gain ?? 1) : null,
-    gainSharing: c.gainSharing,
+    gainSharing: c.gainSharing ?? "equal",
     resistorLevel: c.resistorLevel,
     picker,
     ...tol,

@@ -56,7 +56,7 @@ export function cascadeSchema(kind: "lowpass" | "highpass") {
       cutoff: between("cutoff", FREQUENCY_RANGE.min, FREQUENCY_RANGE.max, "Hz"),
       fixGain: z.boolean({ error: "fixGain must be yes or no" }),
       gain: between("gain", 0.01, 1000, "V/V").optional(),
-      gainSharing: z.enum(["equal", "first", "last"], { error: "gainSharing must be equal, first or last" }),
+      gainSharing: z.enum(["equal", "first", "last"], { error: "gainSharing must be equal, first or last" }).optional(),
       topology: z.enum(["sk-unity", "sk-equal", "mfb"], { error: "topology must be sk-unity, sk-equal or mfb" }),
       firstOrder: z.enum(["rc-buffer", "inverting"], { error: "firstOrder must be rc-buffer or inverting" }),
       passbandFreq: positiveUpTo("passbandFreq", 1e9, "Hz"),

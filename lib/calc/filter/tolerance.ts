@@ -15,7 +15,9 @@
  * frequency and gain: all corners when the design has at most 12 parts (4,096 corners); beyond
  * that, the two corners given by the signs of the first-order sensitivities (each part at the
  * tolerance limit that raises, resp. lowers, the figure), evaluated exactly. This is exact for
- * monotonic dependence and an estimate otherwise; the results say which method was used.
+ * monotonic dependence and an estimate otherwise; the results say which method was used. For
+ * ripple responses (Chebyshev) the −3 dB point can jump to a lower frequency when a ripple valley
+ * sags below −3 dB, which the Monte Carlo shows and the sensitivity corners may miss.
  *
  * Random numbers: xoshiro128** seeded by SplitMix32 (prng.ts).
  */
@@ -202,8 +204,11 @@ export function figureStats(x: Float64Array, count: number, nominal: number, uni
     select(work, k, lo, hi);
     let value = work[k];
     if (h > k && k + 1 < count) {
+      // the (k+1)-th smallest: the least element after k in the selected range, or (when k ends
+      // the range) after the range, whose elements are all ≥ those inside it
       let next = Infinity;
-      for (let i = k + 1; i <= hi; i++) if (work[i] < next) next = work[i];
+      const end = k + 1 <= hi ? hi : count - 1;
+      for (let i = k + 1; i <= end; i++) if (work[i] < next) next = work[i];
       value += (h - k) * (next - value);
     }
     return { k, value };
