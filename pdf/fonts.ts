@@ -1,0 +1,106 @@
+/**
+ * Font registration for the report documents. Runs once per process (module scope): Inter for
+ * text (it has Ω µ √ ° ± − and the sub- and superscript digits), IBM Plex Mono for codes and
+ * hashes. Fonts are read from public/fonts by file path (TTF; react-pdf cannot read WOFF2).
+ */
+import fs from "node:fs";
+import path from "node:path";
+import { Font } from "@react-pdf/renderer";
+
+/** Family names used by the styles. */
+export const FONT_SANS = "Inter";
+export const FONT_MONO = "IBM Plex Mono";
+
+/** Folder the TTF files are read from: `<cwd>/public/fonts`, or LOOPWRIGHT_FONT_DIR. */
+export function fontDir(): string {
+  return process.env.LOOPWRIGHT_FONT_DIR ?? path.join(process.cwd(), "public", "fonts");
+}
+
+let registered = false;
+
+/** The weights and styles registered, for loading and shaping-cache set-up. */
+const VARIANTS: Array<{ fontFamily: string; fontWeight: number; fontStyle?: "italic" }> = [
+  { fontFamily: FONT_SANS, fontWeight: 400 },
+  { fontFamily: FONT_SANS, fontWeight: 400, fontStyle: "italic" },
+  { fontFamily: FONT_SANS, fontWeight: 500 },
+  { fontFamily: FONT_SANS, fontWeight: 600 },
+  { fontFamily: FONT_SANS, fontWeight: 700 },
+  { fontFamily: FONT_MONO, fontWeight: 400 },
+  { fontFamily: FONT_MONO, fontWeight: 500 },
+];
+
+interface ShapedRun {
+  glyphs: unknown[];
+  positions: Array<Record<string, number>>;
+}
+type LayoutFn = (text: string, features?: unknown, script?: string, language?: string, direction?: string) => ShapedRun;
+
+/** Shaped runs of the current report, per font (see {@link startShapingCache}). */
+const shapingCaches = new Map<object, Map<string, ShapedRun>>();
+const MAX_CACHED_RUNS = 20_000;
+
+/**
+ * Loads the report fonts and puts a shaping memo in front of each: the report lays its text out
+ * twice (measuring, then printing), and OpenType shaping (kerning lookups) is the costliest step
+ * of text layout. A cached run is handed out as a copy, so nothing downstream shares state.
+ * Call once per report; it also clears the memo of the previous report.
+ */
+export async function startShapingCache(): Promise<void> {
+  registerReportFonts();
+  for (const v of VARIANTS) {
+    const source = Font.getFont(v);
+    await source.load();
+    const font = source.data as unknown as { layout: LayoutFn; __lwShapingMemo?: true } | null;
+    if (!font) continue;
+    if (!font.__lwShapingMemo) {
+      const original = font.layout.bind(font);
+      const cache = new Map<string, ShapedRun>();
+      shapingCaches.set(font, cache);
+      font.layout = (text, features, script, language, direction) => {
+        const key = `${text}\u0000${features ? JSON.stringify(features) : ""}\u0000${script ?? ""}\u0000${language ?? ""}\u0000${direction ?? ""}`;
+        let run = cache.get(key);
+        if (!run) {
+          run = original(text, features, script, language, direction);
+          if (cache.size >= MAX_CACHED_RUNS) cache.clear();
+          cache.set(key, run);
+        }
+        return { ...run, glyphs: run.glyphs.slice(), positions: run.positions.map((p) => ({ ...p })) };
+      };
+      font.__lwShapingMemo = true;
+    }
+    shapingCaches.get(font)?.clear();
+  }
+}
+
+/** Registers the report fonts (idempotent) and turns off word hyphenation. */
+export function registerReportFonts(): void {
+  if (registered) return;
+  const dir = fontDir();
+  const file = (name: string) => {
+    const p = path.join(dir, name);
+    if (!fs.existsSync(p)) throw new Error(`report font missing: ${p} (run from the project root or set LOOPWRIGHT_FONT_DIR)`);
+    return p;
+  };
+  Font.register({
+    family: FONT_SANS,
+    fonts: [
+      { src: file("Inter_400Regular.ttf"), fontWeight: 400 },
+      { src: file("Inter_400Regular_Italic.ttf"), fontWeight: 400, fontStyle: "italic" },
+      { src: file("Inter_500Medium.ttf"), fontWeight: 500 },
+      { src: file("Inter_600SemiBold.ttf"), fontWeight: 600 },
+      { src: file("Inter_700Bold.ttf"), fontWeight: 700 },
+    ],
+  });
+  Font.register({
+    family: FONT_MONO,
+    fonts: [
+      { src: file("IBMPlexMono_400Regular.ttf"), fontWeight: 400 },
+      { src: file("IBMPlexMono_500Medium.ttf"), fontWeight: 500 },
+    ],
+  });
+  // Never hyphenate: symbols, part names and values must stay whole ("LW-OA320", "4.7 kΩ").
+  Font.registerHyphenationCallback((word) => [word]);
+  registered = true;
+}
+
+registerReportFonts();

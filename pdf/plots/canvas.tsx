@@ -1,0 +1,69 @@
+/**
+ * A plot canvas: one react-pdf Svg for the vector drawing plus an overlay of positioned text
+ * labels (real react-pdf Text, so labels use the report fonts and tabular digits).
+ */
+import type { ReactNode } from "react";
+import { Svg, Text, View } from "@react-pdf/renderer";
+import { colors, TABULAR } from "../theme";
+
+/** A text label placed on the canvas, in points from the canvas's top-left corner. */
+export interface CanvasLabel {
+  x: number;
+  /** Vertical centre of the text line. */
+  y: number;
+  text: string;
+  align?: "left" | "center" | "right";
+  size?: number;
+  color?: string;
+  weight?: 400 | 500 | 600;
+  /** Box width the label is aligned in (default 80 pt). */
+  width?: number;
+  /** Opaque background behind the text (hides lines drawn under it). */
+  background?: string;
+}
+
+/** Width a label of `text` takes at `size` pt, estimated for Inter (average advance ≈ 0.56 em). */
+export function estimateTextWidth(text: string, size: number): number {
+  return text.length * size * 0.56;
+}
+
+/** Rounds a coordinate for path data (0.01 pt is far below print resolution). */
+export function r2(v: number): string {
+  return (Math.round(v * 100) / 100).toString();
+}
+
+export function PlotCanvas(props: { width: number; height: number; labels: CanvasLabel[]; children: ReactNode }) {
+  const { width, height, labels, children } = props;
+  return (
+    <View style={{ position: "relative", width, height }}>
+      <Svg width={width} height={height} viewBox={`0 0 ${r2(width)} ${r2(height)}`}>
+        {children}
+      </Svg>
+      {labels.map((l, i) => {
+        const size = l.size ?? 6.6;
+        const w = l.width ?? 80;
+        const left = l.align === "right" ? l.x - w : l.align === "left" ? l.x : l.x - w / 2;
+        return (
+          <Text
+            key={i}
+            style={{
+              position: "absolute",
+              left,
+              top: l.y - size * 0.62,
+              width: w,
+              fontSize: size,
+              lineHeight: 1.15,
+              textAlign: l.align ?? "center",
+              color: l.color ?? colors.ink2,
+              fontWeight: l.weight ?? 400,
+              fontFeatureSettings: TABULAR,
+              ...(l.background ? { backgroundColor: l.background } : {}),
+            }}
+          >
+            {l.text}
+          </Text>
+        );
+      })}
+    </View>
+  );
+}
