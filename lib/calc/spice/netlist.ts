@@ -6,12 +6,14 @@
  * Op-amp models:
  * - ideal: a voltage-controlled voltage source with gain 1e9 (zero output resistance);
  * - single-pole: subcircuit with A(s) = A0/(1 + s/ωp), ωp = 2π·GBW/A0: a unit transconductance
- *   into R = A0 ∥ C = 1/(ωp·A0), buffered by a unit VCVS (zero output resistance).
+ *   into R = A0 ∥ C = 1/(ωp·A0), buffered by a unit VCVS, with an optional output resistance.
  */
 import type { Circuit } from "../filter/circuit";
 
 /** Op-amp model of a netlist. */
-export type SpiceOpAmpModel = { kind: "ideal" } | { kind: "single-pole"; /** DC open-loop gain, V/V */ a0: number; /** GBW, Hz */ gbw: number; /** part name for the comment */ name?: string };
+export type SpiceOpAmpModel =
+  | { kind: "ideal" }
+  | { kind: "single-pole"; /** DC open-loop gain, V/V */ a0: number; /** GBW, Hz */ gbw: number; /** part name for the comment */ name?: string; /** open-loop output resistance, Ω (default 0) */ rout?: number };
 
 /** Gain of the "ideal" op-amp VCVS, V/V. */
 export const IDEAL_OPAMP_GAIN = 1e9;
@@ -51,12 +53,15 @@ export function writeNetlist(circuit: Circuit, opts: NetlistOptions): string {
   if (m.kind === "ideal") lines.push(`* Op-amp model: ideal (VCVS, gain ${spiceNumber(IDEAL_OPAMP_GAIN)}, zero output resistance)`);
   else {
     const fp = m.gbw / m.a0;
-    lines.push(`* Op-amp model: single pole${m.name ? ` (${m.name})` : ""}: A0 = ${spiceNumber(m.a0)} V/V, GBW = ${spiceNumber(m.gbw)} Hz, pole ${spiceNumber(fp)} Hz`);
+    lines.push(`* Op-amp model: single pole${m.name ? ` (${m.name})` : ""}: A0 = ${spiceNumber(m.a0)} V/V, GBW = ${spiceNumber(m.gbw)} Hz, pole ${spiceNumber(fp)} Hz${m.rout ? `, Ro = ${spiceNumber(m.rout)} Ohm` : ""}`);
     lines.push(`.subckt ${SINGLE_POLE_SUBCKT} inp inn out`);
     lines.push(`G1 0 p1 inp inn 1`);
     lines.push(`R1 p1 0 ${spiceNumber(m.a0)}`);
     lines.push(`C1 p1 0 ${spiceNumber(1 / (2 * Math.PI * fp * m.a0))}`);
-    lines.push(`E1 out 0 p1 0 1`);
+    if (m.rout && m.rout > 0) {
+      lines.push(`E1 o1 0 p1 0 1`);
+      lines.push(`RO o1 out ${spiceNumber(m.rout)}`);
+    } else lines.push(`E1 out 0 p1 0 1`);
     lines.push(`.ends ${SINGLE_POLE_SUBCKT}`);
   }
   lines.push(`VIN ${circuit.input} 0 DC 0 AC 1`);
