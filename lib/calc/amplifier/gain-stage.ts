@@ -30,6 +30,7 @@ import { formatQuantity as q, formatNumber } from "../core/units";
 import { finiteNumber, numberBetween, oneOf, positiveAtMost, yesNo } from "../core/schema";
 import { demoOpAmp, toRawPart } from "../core/demo-parts";
 import { closedLoopAt, crossover, phaseMargin, secondOrder, type LoopModel } from "./opamp-model";
+import { gainStageNetlist } from "../spice/gain-stage";
 
 /** Boltzmann constant, J/K (exact, SI 2019). */
 export const BOLTZMANN = 1.380649e-23;
@@ -621,4 +622,5 @@ export const gainStage: CalcType<typeof gainStageSchema> = {
   fields,
   defaults,
   compute: computeGainStage,
+  netlist: gainStageNetlist,
 };
