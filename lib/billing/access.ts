@@ -7,6 +7,7 @@ import type { Workspace } from "@/db/schema";
 import type { PackId } from "@/lib/calc/core/types";
 import { AppError } from "@/lib/errors";
 import type { Action } from "@/lib/auth/permissions";
+import { PACK_IDS, packTitle } from "./plans";
 
 /** Days a past-due workspace keeps full use before it becomes read-only. */
 export const GRACE_DAYS = 7;
@@ -44,6 +45,10 @@ export function accessState(ws: Pick<Workspace, "subscriptionStatus" | "trialEnd
     }
     case "canceled":
       return { mode: "read_only", message: "The subscription is cancelled: the workspace is read-only. Calculations and issued reports stay readable and downloadable." };
+    case "incomplete":
+      return { mode: "read_only", message: "The first payment has not gone through yet, so the workspace is read-only. The owner can finish it on the billing page." };
+    case "unpaid":
+      return { mode: "read_only", message: "Invoices are unpaid, so the workspace is read-only. Everything stays readable; the owner can pay on the billing page to resume." };
     default:
       return { mode: "read_only", message: "This workspace has no active subscription: it is read-only until the owner subscribes." };
   }
@@ -63,25 +68,33 @@ const WRITE_ACTIONS: ReadonlySet<Action> = new Set<Action>([
   "parts.manage",
 ]);
 
+/** Whether `action` changes data (and so is refused while the workspace is read-only). */
 export function isWriteAction(action: Action): boolean {
   return WRITE_ACTIONS.has(action);
 }
 
 /** Throws 403 read_only when the workspace may not be changed now. */
-export function assertWritable(ws: Workspace, now = Date.now()): void {
+export function assertWritable(ws: Pick<Workspace, "subscriptionStatus" | "trialEndsAt" | "pastDueSince">, now = Date.now()): void {
   const state = accessState(ws, now);
   if (state.mode === "read_only") throw new AppError("read_only", state.message ?? "This workspace is read-only.");
 }
 
-/** Packs the workspace may run now. */
-export function unlockedPacks(ws: Workspace, now = Date.now()): PackId[] {
+/** Packs the workspace may run now: none while read-only, else the subscription's (or the trial's). */
+export function unlockedPacks(ws: Pick<Workspace, "subscriptionStatus" | "trialEndsAt" | "pastDueSince" | "packs">, now = Date.now()): PackId[] {
   if (accessState(ws, now).mode === "read_only") return [];
-  return (ws.packs ?? []).filter((p): p is PackId => p === "amplifier" || p === "filter" || p === "reference");
+  const packs = new Set(ws.packs ?? []);
+  return PACK_IDS.filter((p) => packs.has(p));
 }
 
-/** Throws 402 pack_locked unless the pack is unlocked. */
-export function assertPackUnlocked(ws: Workspace, pack: PackId, now = Date.now()): void {
-  if (!unlockedPacks(ws, now).includes(pack)) {
-    throw new AppError("pack_locked", `The ${pack === "filter" ? "Active filter" : pack[0].toUpperCase() + pack.slice(1)} pack is not part of this workspace's subscription. The owner can add it on the billing page.`);
+/**
+ * Throws 402 pack_locked unless the pack is unlocked. The message says why: the pack is not
+ * subscribed, or the whole workspace is read-only (trial over, cancelled, payment overdue).
+ */
+export function assertPackUnlocked(ws: Pick<Workspace, "subscriptionStatus" | "trialEndsAt" | "pastDueSince" | "packs">, pack: PackId, now = Date.now()): void {
+  if (unlockedPacks(ws, now).includes(pack)) return;
+  const state = accessState(ws, now);
+  if (state.mode === "read_only") {
+    throw new AppError("pack_locked", `The ${packTitle(pack)} cannot run calculations now. ${state.message ?? "The workspace is read-only."}`);
   }
+  throw new AppError("pack_locked", `The ${packTitle(pack)} is not part of this workspace's subscription. The owner can add it on the billing page.`);
 }
