@@ -6,6 +6,7 @@ import * as signupRoute from "@/app/api/signup/route";
 import * as linkRoute from "@/app/api/auth/link/route";
 import * as nextauthRoute from "@/app/api/auth/[...nextauth]/route";
 import * as meRoute from "@/app/api/me/workspaces/route";
+import * as sessionsRoute from "@/app/api/me/sessions/route";
 import * as projectsRoute from "@/app/api/w/[slug]/projects/route";
 import * as memberRoute from "@/app/api/w/[slug]/members/[membershipId]/route";
 import { bumpSessionVersion, checkPassword, consumeLoginToken, SIGNIN_LIMITS } from "@/lib/auth/accounts";
@@ -149,6 +150,14 @@ describe("sessions are re-checked on every request", () => {
     await bumpSessionVersion(w.engineer.id);
     expect((await call(projectsRoute.GET, { params: { slug: w.slug }, cookie: w.engineer.cookie })).status).toBe(401);
     expect((await call(projectsRoute.GET, { params: { slug: w.slug }, cookie: await sessionCookie(w.engineer.id, 2) })).status).toBe(200);
+  });
+
+  it("DELETE /api/me/sessions signs the caller out everywhere", async () => {
+    const w = await makeWorld();
+    expect((await call(sessionsRoute.DELETE, { method: "DELETE" })).status).toBe(401);
+    expect((await call(sessionsRoute.DELETE, { method: "DELETE", cookie: w.checker.cookie })).status).toBe(200);
+    expect((await call(projectsRoute.GET, { params: { slug: w.slug }, cookie: w.checker.cookie })).status).toBe(401);
+    expect((await call(projectsRoute.GET, { params: { slug: w.slug }, cookie: w.owner.cookie })).status).toBe(200);
   });
 
   it("a removed member loses access at once; a changed role applies at once", async () => {

@@ -20,6 +20,7 @@ import * as memberRoute from "@/app/api/w/[slug]/members/[membershipId]/route";
 import * as invitationsRoute from "@/app/api/w/[slug]/invitations/route";
 import * as invitationRoute from "@/app/api/w/[slug]/invitations/[invitationId]/route";
 import * as teamRoute from "@/app/api/w/[slug]/team/route";
+import * as auditRoute from "@/app/api/w/[slug]/audit/route";
 
 type Actor = "owner" | "engineer" | "checker" | "client";
 type Handler = (req: Request, ctx: { params: Promise<Record<string, string>> }) => Promise<Response>;
@@ -126,6 +127,7 @@ export const ROUTES: RouteCase[] = [
     foreignParams: (w) => ({ slug: w.slug, invitationId: "invitation-of-nobody" }),
   },
   { file: "app/api/w/[slug]/team/route.ts", method: "GET", handler: teamRoute.GET, params: ws, expect: STAFF_OK(200) },
+  { file: "app/api/w/[slug]/audit/route.ts", method: "GET", handler: auditRoute.GET, params: ws, expect: OWNER_ONLY(200) },
 ];
 
 /** Routes outside a workspace, and the test file that covers each. */
@@ -136,6 +138,7 @@ export const EXEMPT: Record<string, string> = {
   "app/api/signup/route.ts POST": "public; tests/integration/auth.test.ts",
   "app/api/me/workspaces/route.ts GET": "any signed-in user, own workspaces only; tests/integration/auth.test.ts",
   "app/api/me/workspaces/route.ts POST": "any signed-in user; tests/integration/auth.test.ts",
+  "app/api/me/sessions/route.ts DELETE": "any signed-in user, own sessions; tests/integration/auth.test.ts",
   "app/api/invitations/[token]/route.ts GET": "public by token; tests/integration/invitations.test.ts",
   "app/api/invitations/[token]/accept/route.ts POST": "by token; tests/integration/invitations.test.ts",
 };

@@ -21,6 +21,7 @@ export default async function WorkspaceLayout({ children, params }: { children: 
     { href: `${base}/parts`, label: "Parts library", show: can(ctx.role, "parts.view") },
     { href: `${base}/members`, label: "Members", show: can(ctx.role, "members.view") },
     { href: `${base}/billing`, label: "Billing", show: can(ctx.role, "billing.view") },
+    { href: `${base}/audit`, label: "Audit log", show: can(ctx.role, "audit.view") },
   ].filter((n) => n.show);
 
   return (
