@@ -29,6 +29,7 @@ import { checkAtLeast, checkAtMost, makeCheck } from "../core/checks";
 import { formatQuantity as q, formatNumber } from "../core/units";
 import { finiteNumber, numberBetween, oneOf, positiveAtMost, yesNo } from "../core/schema";
 import { demoOpAmp, toRawPart } from "../core/demo-parts";
+import { outputSwingSection, supplySection, SWING_REFERENCE } from "./common";
 import { closedLoopAt, crossover, phaseMargin, secondOrder, type LoopModel } from "./opamp-model";
 import { gainStageNetlist } from "../spice/gain-stage";
 
@@ -49,7 +50,7 @@ const REF = {
   noise: "Franco, Design with Op Amps, 4th ed., ch. 7; Horowitz & Hill 3rd ed., ch. 8 (4kTR)",
   nbw: "Franco, Design with Op Amps, 4th ed., ch. 7 (noise bandwidth of a single pole, π/2·f_B)",
   stab: "Franco, Design with Op Amps, 4th ed., ch. 8 (capacitive load, phase margin)",
-  swing: "common practice, no source (headroom from data-sheet swing plus Ro·ΔI)",
+  swing: SWING_REFERENCE,
 };
 
 /** Input schema of the gain stage, SI base units. */
@@ -149,11 +150,11 @@ const fields: FieldSpec[] = [
 const defaults = {
   configuration: "non-inverting",
   gain: "10",
-  gainErrorMax: "2",
+  gainErrorMax: "3",
   voutPeak: "2",
   fMax: "20k",
   dcErrorMax: "50m",
-  snrMin: "80",
+  snrMin: "70",
   supply: "single",
   vPos: "5",
   vNeg: "-5",
@@ -209,9 +210,6 @@ export function computeGainStage(input: GainStageInput): CalcOutput {
     Vneg: { value: vNeg, unit: "V", symbol: "V−" },
     Vref: { value: vRef, unit: "V", symbol: split ? "Vref" : "Vbias" },
     Ro: { value: p.rout, unit: "Ω", symbol: "Ro" },
-    RLsw: { value: p.swingLoad, unit: "Ω", symbol: "RL,sw" },
-    swPos: { value: p.swingPos, unit: "V", symbol: "Vsw+" },
-    swNeg: { value: p.swingNeg, unit: "V", symbol: "Vsw−" },
     cmPos: { value: p.vicmPos, unit: "V", symbol: "Vicm+" },
     cmNeg: { value: p.vicmNeg, unit: "V", symbol: "Vicm−" },
     Vos: { value: p.vos, unit: "V", symbol: "Vos" },
@@ -276,7 +274,7 @@ export function computeGainStage(input: GainStageInput): CalcOutput {
     b.formula({ key: "gain_ideal", label: "Signal gain (as designed)", symbol: "G", expr: "-Rf / (Rg + Rs)", unit: "V/V", reference: REF.gain }, {}, G);
     b.formula({ key: "noise_gain", label: "Noise gain", symbol: "NG", expr: "1 + Rf / (Rg + Rs)", unit: "V/V", reference: REF.gain }, {}, G);
   }
-  b.formula({ key: "gain_snap_error", label: "Gain error from preferred values", symbol: "εsnap", expr: "gain_ideal / Gt - 1", unit: "%", scale: "percent" }, {}, G);
+  b.formula({ key: "gain_snap_error", label: "Gain error from preferred values", symbol: "εsnap", expr: "gain_ideal / Gt - 1", unit: "%", scale: "percent", digits: 6 }, {}, G);
   b.formula({ key: "loop_gain_dc", label: "DC loop gain", symbol: "T₀", expr: "aol / noise_gain", unit: "V/V", reference: REF.loop }, {}, G);
   b.formula({ key: "gain_dc", label: "DC gain with finite open-loop gain", symbol: "G_dc", expr: "gain_ideal / (1 + 1 / loop_gain_dc)", unit: "V/V", reference: REF.loop }, {}, G);
   if (follower) {
@@ -350,50 +348,10 @@ export function computeGainStage(input: GainStageInput): CalcOutput {
   if (follower) b.formula({ key: "r_load_total", label: "Total load on the output", symbol: "RL,tot", expr: "RL", unit: "Ω" }, {}, O);
   else if (nonInv) b.formula({ key: "r_load_total", label: "Total load on the output (RL ‖ (Rf + Rg))", symbol: "RL,tot", expr: "RL * (Rf + Rg) / (RL + Rf + Rg)", unit: "Ω" }, {}, O);
   else b.formula({ key: "r_load_total", label: "Total load on the output (RL ‖ Rf)", symbol: "RL,tot", expr: "RL * Rf / (RL + Rf)", unit: "Ω" }, {}, O);
-  const ipk = b.formula({ key: "i_out_peak", label: "Peak output current", symbol: "Io,pk", expr: "Vpk / r_load_total", unit: "A" }, {}, O);
-  const heavier = f.value("r_load_total") < p.swingLoad;
-  const extra = b.formula({ key: "swing_derating", label: "Extra headroom for the heavier load", symbol: "ΔVsw", expr: "Ro * max(0, i_out_peak - Vpk / RLsw)", unit: "V", reference: REF.swing }, {}, O);
-  const vOmax = b.formula({ key: "v_out_max", label: "Highest output voltage", symbol: "Vo,max", expr: "Vpos - swPos - swing_derating", unit: "V", reference: REF.swing }, {}, O);
-  const vOmin = b.formula({ key: "v_out_min", label: "Lowest output voltage", symbol: "Vo,min", expr: "Vneg + swNeg + swing_derating", unit: "V", reference: REF.swing }, {}, O);
+  const { vOmax, vOmin } = outputSwingSection(b, { part: p, vPos, vNeg, vRef, vPeak: input.voutPeak, advice: split ? "" : ", re-centre Vbias", group: O });
   const needHi = vRef + input.voutPeak;
   const needLo = vRef - input.voutPeak;
-  const availUp = vOmax - vRef;
-  const availDown = vRef - vOmin;
-  b.check(
-    checkAtMost("swing.high", "Output swing, positive rail", input.voutPeak, availUp, {
-      pass: () => `Output peak ${q(needHi, "V")} stays below the highest output ${q(vOmax, "V")} (V+ ${q(vPos, "V")} less ${q(p.swingPos + extra, "V")} headroom).`,
-      fail: () => `Output peak ${q(needHi, "V")} is above the highest output ${q(vOmax, "V")} (V+ ${q(vPos, "V")} less ${q(p.swingPos + extra, "V")} headroom): the output clips. Raise V+, reduce the amplitude${split ? "" : ", re-centre Vbias"} or choose a part with more output swing.`,
-    }, { warnBelow: 0.05 }),
-    checkAtMost("swing.low", "Output swing, negative rail", input.voutPeak, availDown, {
-      pass: () => `Output trough ${q(needLo, "V")} stays above the lowest output ${q(vOmin, "V")} (V− ${q(vNeg, "V")} plus ${q(p.swingNeg + extra, "V")} headroom).`,
-      fail: () => `Output trough ${q(needLo, "V")} is below the lowest output ${q(vOmin, "V")} (V− ${q(vNeg, "V")} plus ${q(p.swingNeg + extra, "V")} headroom): the output clips. Lower V−, reduce the amplitude${split ? "" : ", re-centre Vbias"} or choose a part with more output swing.`,
-    }, { warnBelow: 0.05 }),
-  );
-  if (heavier) {
-    b.check(
-      makeCheck(
-        "swing.load",
-        "warning",
-        "Load heavier than the swing specification",
-        `The output drives ${q(f.value("r_load_total"), "Ω")} (load with feedback network), heavier than the ${q(p.swingLoad, "Ω")} at which the part's swing is specified; the headroom was increased by Ro·ΔI = ${q(p.rout, "Ω")} × ${q(Math.max(0, ipk - input.voutPeak / p.swingLoad), "A")} = ${q(extra, "V")} on each rail. Confirm with the maker's swing-versus-load curve.`,
-      ),
-    );
-  }
-  b.check(
-    checkAtMost("output.current", "Output current", ipk, p.ioutMax, {
-      pass: () => `Peak output current ${q(ipk, "A")} is within the part's ${q(p.ioutMax, "A")}.`,
-      fail: () => `Peak output current ${q(ipk, "A")} exceeds the part's ${q(p.ioutMax, "A")}; raise the load or feedback resistances or add a buffer.`,
-    }, { warnBelow: 0.2 }),
-  );
-
-  // ---- Supply --------------------------------------------------------------------------------
-  const vs = vPos - vNeg;
-  b.result("supply_total", "Total supply", "Vs", vs, "V", O);
-  if (vs < p.supplyMin || vs > p.supplyMax) {
-    b.check(makeCheck("supply.range", "fail", "Supply range", `Total supply ${q(vs, "V")} is outside the part's ${q(p.supplyMin, "V")} to ${q(p.supplyMax, "V")}; choose a part rated for this supply or change the rails.`, vs < p.supplyMin ? vs / p.supplyMin - 1 : 1 - vs / p.supplyMax));
-  } else {
-    b.check(makeCheck("supply.range", "pass", "Supply range", `Total supply ${q(vs, "V")} is within the part's ${q(p.supplyMin, "V")} to ${q(p.supplyMax, "V")}.`, Math.min(vs / p.supplyMin - 1, 1 - vs / p.supplyMax)));
-  }
+  supplySection(b, p, vPos, vNeg, O);
 
   // ---- Input common-mode range -----------------------------------------------------------
   const C = "Input common-mode";
@@ -606,7 +564,6 @@ export function computeGainStage(input: GainStageInput): CalcOutput {
     "Noise: white en with its 1/f corner, in at both inputs (uncorrelated), resistor noise 4kTR at 25 °C, all shaped by the closed-loop pole; peaking from CL is not included.",
     "Resistor tolerances are treated as independent worst-case extremes; resistor temperature coefficients are not included.",
   );
-  if (vs > 50) b.cautions.push(`Total supply ${q(vs, "V")}: treat the circuit as hazardous voltage; follow the creepage, clearance and insulation rules of the applicable standard and local codes.`);
 
   return b.build();
 }

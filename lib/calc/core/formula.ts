@@ -62,7 +62,8 @@ interface Compiled {
   code: EvalFunction;
   /** Free variables of the expression. */
   symbols: string[];
-  /** Print template: text parts at even indices, variable slots at odd ("!" = parenthesise). */
+  /** Print template: text parts at even indices, variable slots at odd ("!" = parenthesise a
+   * quantity, "~" = never parenthesise). */
   parts: string[];
 }
 
@@ -84,7 +85,9 @@ function printNode(node: MathNode): string {
       if (math.isFunctionNode(n)) {
         const name = n.fn.name;
         const shown = FUNCTION_NAMES[name] ?? name;
-        return `${shown}(${n.args.map((a) => a.toString(options)).join(", ")})`;
+        // A bare variable as a function argument needs no parentheses of its own: "abs(−2 V)".
+        const args = n.args.map((a) => (math.isSymbolNode(a) && !(a.name in CONSTANTS) ? `${SLOT}~${a.name}${SLOT}` : a.toString(options)));
+        return `${shown}(${args.join(", ")})`;
       }
       if (math.isOperatorNode(n) && n.fn === "pow" && math.isSymbolNode(n.args[0]) && !(n.args[0].name in CONSTANTS)) {
         return `${SLOT}!${n.args[0].name}${SLOT}^${n.args[1].toString(options)}`;
@@ -217,11 +220,13 @@ export class FormulaSheet {
         symbolic += parts[i];
         substituted += parts[i];
       } else {
-        const strong = parts[i].startsWith("!");
-        const name = strong ? parts[i].slice(1) : parts[i];
+        const mark = parts[i][0];
+        const strong = mark === "!";
+        const bare = mark === "~";
+        const name = strong || bare ? parts[i].slice(1) : parts[i];
         const q = used[name];
         symbolic += q.symbol ?? name;
-        substituted += formatVar(q, digits, strong);
+        substituted += bare ? formatQuantity(q.value, q.unit, { digits: q.digits ?? digits, scale: q.scale }) : formatVar(q, digits, strong);
       }
     }
     const finite = Number.isFinite(value);
