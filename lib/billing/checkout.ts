@@ -7,28 +7,19 @@
  */
 import { createHash } from "node:crypto";
 import { and, eq, isNull } from "drizzle-orm";
-import { z } from "zod";
 import { workspaces } from "@/db/schema";
 import { write } from "@/db/write";
 import { auditInsert } from "@/lib/audit";
 import type { WorkspaceContext } from "@/lib/auth/guard";
 import { appUrl } from "@/lib/env";
 import { AppError } from "@/lib/errors";
-import { PACK_IDS, plansForPacks } from "./plans";
-import { assertSeatsCoverMembers, seatsSchema } from "./seats";
+import { plansForPacks } from "./plans";
+import { checkoutSchema, type CheckoutInput } from "./schemas";
+import { assertSeatsCoverMembers } from "./seats";
 import { callStripe } from "./stripe";
 import { hasLiveSubscription, syncSubscription, type SyncResult } from "./subscription";
 
-/** Body of POST /api/w/:slug/billing/checkout. */
-export const checkoutSchema = z.object({
-  packs: z
-    .array(z.enum(PACK_IDS, { error: (iss) => `"${String(iss.input)}" is not a pack; use amplifier, filter or reference` }), { error: "must be a list of packs" })
-    .min(1, "choose at least one pack")
-    .refine((a) => new Set(a).size === a.length, "lists a pack more than once"),
-  seats: seatsSchema,
-});
-
-export type CheckoutInput = z.output<typeof checkoutSchema>;
+export { checkoutSchema, type CheckoutInput };
 
 /** The billing page of a workspace, absolute, with an optional query string. */
 export function billingPageUrl(slug: string, query = ""): string {

@@ -4,14 +4,14 @@
  * changes the number of paid seats with `changeSeats` (the subscription items' quantity).
  */
 import { and, eq, gt, inArray, isNull, sql } from "drizzle-orm";
-import { z } from "zod";
+import type { z } from "zod";
 import { invitations, memberships, type Role, type Workspace } from "@/db/schema";
 import type { Db } from "@/db/client";
 import { read } from "@/db/write";
 import { AppError } from "@/lib/errors";
 import { SEAT_ROLES } from "@/lib/auth/permissions";
 import type { WorkspaceContext } from "@/lib/auth/guard";
-import { MAX_SEATS } from "./plans";
+import { changeSeatsSchema, seatsSchema } from "./schemas";
 import { stripeFailure } from "./stripe";
 import { changeSubscription, hasLiveSubscription, type SyncResult } from "./subscription";
 
@@ -69,15 +69,7 @@ export async function assertSeatAvailable(ws: Workspace, role: Role, opts: { cou
   }
 }
 
-/** A number of paid seats: a whole number from 1 to MAX_SEATS. */
-export const seatsSchema = z
-  .number({ error: "must be a whole number of seats" })
-  .int("must be a whole number of seats")
-  .min(1, "must be at least 1 seat")
-  .max(MAX_SEATS, `must be at most ${MAX_SEATS} seats (write to us for more)`);
-
-/** Body of the "change seats" action. */
-export const changeSeatsSchema = z.object({ seats: seatsSchema });
+export { changeSeatsSchema, seatsSchema };
 
 /** Throws 422 (field `seats`) when `seats` is fewer than the workspace's seat members now. */
 export async function assertSeatsCoverMembers(ws: Workspace, seats: number, db?: Db): Promise<SeatUsage> {

@@ -1,5 +1,6 @@
 "use client";
 
+import Link from "next/link";
 import { useState } from "react";
 import { useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
 import { Button, Field, Notice, Panel, Select, Tag, TextInput } from "@/app/_components/ui";
@@ -82,6 +83,9 @@ export function MembersView({
             <p className="text-[13px] text-ink-2" data-testid="seat-usage">
               Seats: <span className="mono">{seats.used}</span> used{seats.pending ? <>, <span className="mono">{seats.pending}</span> invited</> : null} of{" "}
               <span className="mono">{seats.limit}</span>
+              <Link href={`/w/${slug}/billing#seats`} className="ml-2 font-medium text-copper underline-offset-2 hover:underline">
+                Add seats
+              </Link>
             </p>
           </div>
           {rowError ? (
