@@ -523,6 +523,9 @@ export function computeFilter(kind: "lowpass" | "highpass" | "bandpass", input: 
     "GBW needed per section: GBW ≥ 100·Gₙ·Q·f₀ for second-order and 100·Gₙ·f₀ for first-order sections (rule of thumb, common practice, no source); for the band-pass, loop gain ≥ 10 at f₀ (noise gain 1 + 2Q²). Below the rule a check warns; below a tenth of it, it fails.",
     `Tolerance analysis uses the ideal op-amp and independent part variations: ${input.mcDistribution === "uniform" ? "uniform within ± tolerance" : "normal with σ = tolerance/3 (tolerance = 3σ, common practice), not truncated"}; random numbers from xoshiro128** seeded by SplitMix32 (seed ${input.mcSeed}).`,
     `Worst case: every corner of each section's parts for f₀ and Q; for the overall frequency and gain ${wc.method === "corners" ? "every corner of all parts" : `the two sensitivity-directed corners (the design has more than ${MAX_CORNER_PARTS} parts, too many for all 2ⁿ corners), exact for monotonic dependence`}.`,
+    ...(cascade?.response === "chebyshev"
+      ? ["With a ripple response the −3 dB frequency can jump to a lower value when a ripple valley sags below −3 dB under tolerance; the Monte Carlo shows this, the sensitivity corners may not."]
+      : []),
     "Resistors outside 100 Ω … 1 MΩ and capacitors below 100 pF are flagged (common practice, no source).",
   );
   return out.build();

@@ -52,6 +52,7 @@ export function compileCircuit(circuit: Circuit, model: OpAmpModel): CompiledCir
   const bre = new Float64Array(n);
   const bim = new Float64Array(n);
   const wp = model.kind === "single-pole" ? (2 * Math.PI * model.gbw) / model.a0 : 0;
+  const xr = new Float64Array(n), xi = new Float64Array(n);
 
   return {
     solve(omega: number): [number, number] {
@@ -120,7 +121,6 @@ export function compileCircuit(circuit: Circuit, model: OpAmpModel): CompiledCir
           bim[r] -= fr * bim[col] + fi * bre[col];
         }
       }
-      const xr = new Float64Array(n), xi = new Float64Array(n);
       for (let r = n - 1; r >= 0; r--) {
         let sr = bre[r], si = bim[r];
         for (let c = r + 1; c < n; c++) {

@@ -250,31 +250,56 @@ export interface SweepResponse {
 
 /**
  * Evaluate a design over frequencies f (Hz) with an op-amp model, from the chosen component
- * values (or the given values). Uses nodal analysis per section (sections are driven by ideal
- * op-amp outputs, so they do not load each other); group delay by a central difference of the
- * phase with a relative step of 1e-5.
+ * values (or the given values). The ideal model with the design's own values is evaluated from
+ * the section polynomials (group delay analytically); any other case by nodal analysis per section
+ * (sections are driven by ideal op-amp outputs, so they do not load each other), with the group
+ * delay from a central difference of the phase (relative step 1e-5).
  */
 export function sweepResponse(design: FilterDesign, f: readonly number[], model: OpAmpModel, values: ArrayLike<number> = design.values): SweepResponse {
-  const solvers = design.sections.map((s) => compileCircuit(sectionCircuit(design, s, values), model));
-  const h = 1e-5;
   const out: SweepResponse = { f: [...f], mag: [], db: [], phase: [], delay: [], perSection: design.sections.map(() => []) };
+  const n = design.sections.length;
+  // ideal op-amp with the design's own values: exact from the section polynomials (group delay
+  // analytically, τ = Re(D'/D) − Re(N'/N) at s = jω); otherwise nodal analysis per section
+  const usePolynomials = model.kind === "ideal" && values === design.values;
+  const solvers = usePolynomials ? [] : design.sections.map((s) => compileCircuit(sectionCircuit(design, s, values), model));
+  const c = packedCoefficients(design);
+  const h = 1e-5;
   let prevPhase = 0;
   let unwrap = 0;
   f.forEach((fi, i) => {
     const w = TWO_PI * fi;
     let re = 1, im = 0;
-    let dArg = 0;
-    solvers.forEach((sv, k) => {
-      const [a, b] = sv.solve(w);
-      const nr = re * a - im * b;
+    let tau = 0;
+    for (let k = 0; k < n; k++) {
+      let a: number, b: number;
+      if (usePolynomials) {
+        const o = 5 * k;
+        const nr = c[o] - c[o + 2] * w * w, ni = c[o + 1] * w;
+        const dr = 1 - c[o + 4] * w * w, di = c[o + 3] * w;
+        const dd = dr * dr + di * di;
+        a = (nr * dr + ni * di) / dd;
+        b = (ni * dr - nr * di) / dd;
+        // derivatives d/dω of N(jω), D(jω): N' = j·b1 − 2·b2·ω, D' = j·a1 − 2·a2·ω
+        const npr = -2 * c[o + 2] * w, npi = c[o + 1];
+        const dpr = -2 * c[o + 4] * w, dpi = c[o + 3];
+        // −d arg H/dω = −Im(N'/N) + Im(D'/D)
+        const nn = nr * nr + ni * ni;
+        const imN = nn > 0 ? (npi * nr - npr * ni) / nn : 0;
+        const imD = (dpi * dr - dpr * di) / dd;
+        tau += imD - imN;
+      } else {
+        const sv = solvers[k];
+        [a, b] = sv.solve(w);
+        const [pa, pb] = sv.solve(w * (1 + h));
+        const [ma, mb] = sv.solve(w * (1 - h));
+        // arg(H+/H−) = arg(H+ · conj(H−))
+        tau -= Math.atan2(pb * ma - pa * mb, pa * ma + pb * mb) / (2 * h * w);
+      }
+      const nr2 = re * a - im * b;
       im = re * b + im * a;
-      re = nr;
+      re = nr2;
       out.perSection[k].push(Math.hypot(re, im));
-      const [pa, pb] = sv.solve(w * (1 + h));
-      const [ma, mb] = sv.solve(w * (1 - h));
-      // arg(H+/H−) = arg(H+ · conj(H−))
-      dArg += Math.atan2(pb * ma - pa * mb, pa * ma + pb * mb);
-    });
+    }
     const mag = Math.hypot(re, im);
     let ph = (Math.atan2(im, re) * 180) / Math.PI;
     if (i > 0) {
@@ -286,7 +311,7 @@ export function sweepResponse(design: FilterDesign, f: readonly number[], model:
     out.mag.push(mag);
     out.db.push(20 * Math.log10(Math.max(mag, 1e-300)));
     out.phase.push(ph);
-    out.delay.push(-dArg / (2 * h * w));
+    out.delay.push(tau);
   });
   return out;
 }
