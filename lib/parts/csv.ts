@@ -186,7 +186,7 @@ function parseHeader(kind: PartKind, header: string[]): HeaderMap {
     const m = /^([A-Za-z][A-Za-z0-9_]*)\s*(?:\[(.*)\])?$/.exec(h);
     const col = m ? cols.find((c) => c.key.toLowerCase() === m[1].toLowerCase()) : undefined;
     if (!m || !col) {
-      notes.push(`Column ${i + 1} "${h}" is not a ${kind === "opamp" ? "op-amp" : "reference"} parameter and was ignored.`);
+      notes.push(`Column ${i + 1} "${h}" is not ${kind === "opamp" ? "an op-amp" : "a reference"} parameter and was ignored.`);
       return;
     }
     if (seen.has(col.key)) {

@@ -15,7 +15,7 @@ import { AppError, notFound } from "@/lib/errors";
 import { newId } from "@/lib/ids";
 import { auditInsert } from "@/lib/audit";
 import type { WorkspaceContext } from "@/lib/auth/guard";
-import { KIND_LABELS, MAX_NOTES, MAX_VALUE_TEXT, PART_KINDS, nameKey, validatePart, type PartKind } from "./fields";
+import { MAX_NOTES, MAX_VALUE_TEXT, PART_KINDS, nameKey, validatePart, type PartKind } from "./fields";
 
 export { PART_KINDS, type PartKind } from "./fields";
 
@@ -86,7 +86,7 @@ export async function libraryNames(db: Db, workspaceId: string, kind: PartKind, 
 
 function duplicate(kind: PartKind, name: string, existing: string): AppError {
   const same = existing === name ? `"${name}"` : `"${existing}" (names are compared without regard to case)`;
-  return new AppError("conflict", `The library already has ${KIND_LABELS[kind].slice(0, -1)} named ${same}. Choose another name or edit that part.`, {
+  return new AppError("conflict", `The library already has ${kind === "opamp" ? "an op-amp" : "a reference"} named ${same}. Choose another name or edit that part.`, {
     fields: { name: `a part named ${same} already exists` },
   });
 }
