@@ -19,6 +19,12 @@ export type OpAmpModel = { kind: "ideal" } | { kind: "single-pole"; /** DC open-
 export interface CompiledCircuit {
   /** Complex response V(output)/V(input) at angular frequency ω (rad/s): [re, im]. */
   solve(omega: number): [number, number];
+  /**
+   * Response and its derivative with respect to ω at ω (rad/s): [re, im, d re/dω, d im/dω],
+   * the derivative from one extra substitution with the same LU factors:
+   * A(ω)·x = b(ω) with A = G + jω·K, b = b_G + jω·b_K gives x' = A⁻¹·j·(b_K − K·x).
+   */
+  solveWithDerivative(omega: number): [number, number, number, number];
 }
 
 /**
@@ -47,95 +53,143 @@ export function compileCircuit(circuit: Circuit, model: OpAmpModel): CompiledCir
   const outIdx = nodeOf(circuit.output);
   const nNodes = index.size;
   const n = nNodes + opamps.length;
-  const re = new Float64Array(n * n);
-  const im = new Float64Array(n * n);
-  const bre = new Float64Array(n);
-  const bim = new Float64Array(n);
+  // A(ω) = G + jω·K, b(ω) = bG + jω·bK, all real and constant
+  const G = new Float64Array(n * n), K = new Float64Array(n * n);
+  const bG = new Float64Array(n), bK = new Float64Array(n);
+  for (const { a, b, g, isC } of passives) {
+    const M = isC ? K : G;
+    const rhs = isC ? bK : bG;
+    // the input node (−2) is a known 1 V source: its terms go to the right-hand side
+    if (a >= 0) {
+      M[a * n + a] += g;
+      if (b >= 0) M[a * n + b] -= g;
+      else if (b === -2) rhs[a] += g;
+    }
+    if (b >= 0) {
+      M[b * n + b] += g;
+      if (a >= 0) M[b * n + a] -= g;
+      else if (a === -2) rhs[b] += g;
+    }
+  }
   const wp = model.kind === "single-pole" ? (2 * Math.PI * model.gbw) / model.a0 : 0;
+  opamps.forEach(({ p, m, o }, k) => {
+    const row = nNodes + k;
+    if (o >= 0) G[o * n + row] -= 1; // output current enters node o
+    // V+ − V− − Vout·(1 + jω/ωp)/A0 = 0
+    const known = (node: number, sign: number) => {
+      if (node >= 0) G[row * n + node] += sign;
+      else if (node === -2) bG[row] -= sign;
+    };
+    known(p, 1);
+    known(m, -1);
+    if (model.kind === "single-pole" && o >= 0) {
+      G[row * n + o] -= 1 / model.a0;
+      K[row * n + o] -= 1 / (wp * model.a0);
+    }
+  });
+
+  const lr = new Float64Array(n * n), li = new Float64Array(n * n);
+  const perm = new Int32Array(n);
+  const yr = new Float64Array(n), yi = new Float64Array(n);
   const xr = new Float64Array(n), xi = new Float64Array(n);
+  const vr = new Float64Array(n), vi = new Float64Array(n);
+
+  /** LU factors of A(ω) with partial pivoting, in place in lr/li (unit lower triangle below). */
+  const factor = (omega: number) => {
+    for (let i = 0; i < n * n; i++) {
+      lr[i] = G[i];
+      li[i] = omega * K[i];
+    }
+    for (let i = 0; i < n; i++) perm[i] = i;
+    for (let col = 0; col < n; col++) {
+      let piv = col, best = -1;
+      for (let r = col; r < n; r++) {
+        const mag = Math.abs(lr[r * n + col]) + Math.abs(li[r * n + col]);
+        if (mag > best) { best = mag; piv = r; }
+      }
+      if (piv !== col) {
+        for (let c = 0; c < n; c++) {
+          const i1 = col * n + c, i2 = piv * n + c;
+          let t = lr[i1]; lr[i1] = lr[i2]; lr[i2] = t;
+          t = li[i1]; li[i1] = li[i2]; li[i2] = t;
+        }
+        const t = perm[col]; perm[col] = perm[piv]; perm[piv] = t;
+      }
+      const pr = lr[col * n + col], pi = li[col * n + col];
+      const pd = pr * pr + pi * pi;
+      if (pd === 0) continue;
+      for (let r = col + 1; r < n; r++) {
+        const ar = lr[r * n + col], ai = li[r * n + col];
+        if (ar === 0 && ai === 0) continue;
+        const fr = (ar * pr + ai * pi) / pd, fi = (ai * pr - ar * pi) / pd;
+        lr[r * n + col] = fr;
+        li[r * n + col] = fi;
+        for (let c = col + 1; c < n; c++) {
+          const ur = lr[col * n + c], ui = li[col * n + c];
+          lr[r * n + c] -= fr * ur - fi * ui;
+          li[r * n + c] -= fr * ui + fi * ur;
+        }
+      }
+    }
+  };
+  /** Solve with the current factors: right-hand side (br, bi) → (outR, outI). */
+  const substitute = (br: Float64Array, bi: Float64Array, outR: Float64Array, outI: Float64Array) => {
+    for (let r = 0; r < n; r++) {
+      let sr = br[perm[r]], si = bi[perm[r]];
+      for (let c = 0; c < r; c++) {
+        const fr = lr[r * n + c], fi = li[r * n + c];
+        sr -= fr * yr[c] - fi * yi[c];
+        si -= fr * yi[c] + fi * yr[c];
+      }
+      yr[r] = sr;
+      yi[r] = si;
+    }
+    for (let r = n - 1; r >= 0; r--) {
+      let sr = yr[r], si = yi[r];
+      for (let c = r + 1; c < n; c++) {
+        const ar = lr[r * n + c], ai = li[r * n + c];
+        sr -= ar * outR[c] - ai * outI[c];
+        si -= ar * outI[c] + ai * outR[c];
+      }
+      const pr = lr[r * n + r], pi = li[r * n + r];
+      const pd = pr * pr + pi * pi;
+      outR[r] = pd === 0 ? 0 : (sr * pr + si * pi) / pd;
+      outI[r] = pd === 0 ? 0 : (si * pr - sr * pi) / pd;
+    }
+  };
+  const solveX = (omega: number) => {
+    factor(omega);
+    for (let i = 0; i < n; i++) {
+      vr[i] = bG[i];
+      vi[i] = omega * bK[i];
+    }
+    substitute(vr, vi, xr, xi);
+  };
+  const dxr = new Float64Array(n), dxi = new Float64Array(n);
 
   return {
     solve(omega: number): [number, number] {
-      re.fill(0); im.fill(0); bre.fill(0); bim.fill(0);
-      const stamp = (r: number, c: number, yr: number, yi: number) => {
-        re[r * n + c] += yr;
-        im[r * n + c] += yi;
-      };
-      for (const { a, b, g, isC } of passives) {
-        const yr = isC ? 0 : g;
-        const yi = isC ? omega * g : 0;
-        // input node (−2) is a known 1 V source: its terms go to the right-hand side
-        if (a >= 0) {
-          stamp(a, a, yr, yi);
-          if (b >= 0) stamp(a, b, -yr, -yi);
-          else if (b === -2) { bre[a] += yr; bim[a] += yi; }
-        }
-        if (b >= 0) {
-          stamp(b, b, yr, yi);
-          if (a >= 0) stamp(b, a, -yr, -yi);
-          else if (a === -2) { bre[b] += yr; bim[b] += yi; }
-        }
-      }
-      opamps.forEach(({ p, m, o }, k) => {
-        const row = nNodes + k;
-        // output current enters node o
-        if (o >= 0) stamp(o, row, -1, 0);
-        // V+ − V− − Vout·(1 + jω/ωp)/A0 = 0
-        const known = (node: number, sign: number) => {
-          if (node >= 0) stamp(row, node, sign, 0);
-          else if (node === -2) bre[row] -= sign;
-        };
-        known(p, 1);
-        known(m, -1);
-        if (model.kind === "single-pole" && o >= 0) stamp(row, o, -1 / model.a0, -omega / (wp * model.a0));
-      });
-      // Gaussian elimination with partial pivoting (complex)
-      for (let col = 0; col < n; col++) {
-        let piv = col, best = -1;
-        for (let r = col; r < n; r++) {
-          const mag = Math.abs(re[r * n + col]) + Math.abs(im[r * n + col]);
-          if (mag > best) { best = mag; piv = r; }
-        }
-        if (piv !== col) {
-          for (let c = 0; c < n; c++) {
-            const i1 = col * n + c, i2 = piv * n + c;
-            let t = re[i1]; re[i1] = re[i2]; re[i2] = t;
-            t = im[i1]; im[i1] = im[i2]; im[i2] = t;
-          }
-          let t = bre[col]; bre[col] = bre[piv]; bre[piv] = t;
-          t = bim[col]; bim[col] = bim[piv]; bim[piv] = t;
-        }
-        const pr = re[col * n + col], pi = im[col * n + col];
-        const pd = pr * pr + pi * pi;
-        if (pd === 0) continue;
-        for (let r = col + 1; r < n; r++) {
-          const xr = re[r * n + col], xi = im[r * n + col];
-          if (xr === 0 && xi === 0) continue;
-          const fr = (xr * pr + xi * pi) / pd, fi = (xi * pr - xr * pi) / pd;
-          for (let c = col; c < n; c++) {
-            const yr = re[col * n + c], yi = im[col * n + c];
-            re[r * n + c] -= fr * yr - fi * yi;
-            im[r * n + c] -= fr * yi + fi * yr;
-          }
-          bre[r] -= fr * bre[col] - fi * bim[col];
-          bim[r] -= fr * bim[col] + fi * bre[col];
-        }
-      }
-      for (let r = n - 1; r >= 0; r--) {
-        let sr = bre[r], si = bim[r];
-        for (let c = r + 1; c < n; c++) {
-          const ar = re[r * n + c], ai = im[r * n + c];
-          sr -= ar * xr[c] - ai * xi[c];
-          si -= ar * xi[c] + ai * xr[c];
-        }
-        const pr = re[r * n + r], pi = im[r * n + r];
-        const pd = pr * pr + pi * pi;
-        xr[r] = pd === 0 ? 0 : (sr * pr + si * pi) / pd;
-        xi[r] = pd === 0 ? 0 : (si * pr - sr * pi) / pd;
-      }
       if (outIdx === -2) return [1, 0];
       if (outIdx < 0) return [0, 0];
+      solveX(omega);
       return [xr[outIdx], xi[outIdx]];
+    },
+    solveWithDerivative(omega: number): [number, number, number, number] {
+      if (outIdx === -2) return [1, 0, 0, 0];
+      if (outIdx < 0) return [0, 0, 0, 0];
+      solveX(omega);
+      // v = bK − K·x (complex), rhs = j·v
+      for (let r = 0; r < n; r++) {
+        let sr = bK[r], si = 0;
+        for (let c = 0; c < n; c++) {
+          const k = K[r * n + c];
+          if (k !== 0) { sr -= k * xr[c]; si -= k * xi[c]; }
+        }
+        vr[r] = -si;
+        vi[r] = sr;
+      }
+      substitute(vr, vi, dxr, dxi);
+      return [xr[outIdx], xi[outIdx], dxr[outIdx], dxi[outIdx]];
     },
   };
 }

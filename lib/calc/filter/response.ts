@@ -253,7 +253,7 @@ export interface SweepResponse {
  * values (or the given values). The ideal model with the design's own values is evaluated from
  * the section polynomials (group delay analytically); any other case by nodal analysis per section
  * (sections are driven by ideal op-amp outputs, so they do not load each other), with the group
- * delay from a central difference of the phase (relative step 1e-5).
+ * delay from the exact derivative of the nodal solution (mna.ts solveWithDerivative).
  */
 export function sweepResponse(design: FilterDesign, f: readonly number[], model: OpAmpModel, values: ArrayLike<number> = design.values): SweepResponse {
   const out: SweepResponse = { f: [...f], mag: [], db: [], phase: [], delay: [], perSection: design.sections.map(() => []) };
@@ -263,7 +263,6 @@ export function sweepResponse(design: FilterDesign, f: readonly number[], model:
   const usePolynomials = model.kind === "ideal" && values === design.values;
   const solvers = usePolynomials ? [] : design.sections.map((s) => compileCircuit(sectionCircuit(design, s, values), model));
   const c = packedCoefficients(design);
-  const h = 1e-5;
   let prevPhase = 0;
   let unwrap = 0;
   f.forEach((fi, i) => {
@@ -288,12 +287,12 @@ export function sweepResponse(design: FilterDesign, f: readonly number[], model:
         const imD = (dpi * dr - dpr * di) / dd;
         tau += imD - imN;
       } else {
-        const sv = solvers[k];
-        [a, b] = sv.solve(w);
-        const [pa, pb] = sv.solve(w * (1 + h));
-        const [ma, mb] = sv.solve(w * (1 - h));
-        // arg(H+/H−) = arg(H+ · conj(H−))
-        tau -= Math.atan2(pb * ma - pa * mb, pa * ma + pb * mb) / (2 * h * w);
+        const [hr, hi, dr, di] = solvers[k].solveWithDerivative(w);
+        a = hr;
+        b = hi;
+        // τ = −d arg H/dω = −Im(H'/H)
+        const hh = hr * hr + hi * hi;
+        if (hh > 0) tau -= (di * hr - dr * hi) / hh;
       }
       const nr2 = re * a - im * b;
       im = re * b + im * a;
