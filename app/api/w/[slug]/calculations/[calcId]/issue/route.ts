@@ -1,0 +1,8 @@
+import { workspaceRoute } from "@/lib/auth/guard";
+import { created, parseJson } from "@/lib/http";
+import { issueReport, issueSchema } from "@/lib/reports/issue";
+
+type P = { slug: string; calcId: string };
+
+// POST /api/w/:slug/calculations/:calcId/issue – issue the approved calculation ({ version }): signed PDF + status issued, atomically
+export const POST = workspaceRoute<P>("calc.issue", async ({ req, params, ctx }) => created({ report: await issueReport(ctx, params.calcId, await parseJson(req, issueSchema)) }));
