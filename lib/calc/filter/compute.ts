@@ -45,6 +45,10 @@ export function seriesPicker(capSeries: ESeries, resSeries: ESeries): ValuePicke
       const p = bestRatioPair(ratio, resSeries, { rbMin: near / 3.3, rbMax: near * 3.3 });
       return p ? { a: p.ra, b: p.rb } : { a: nearestPreferred(ratio * near, resSeries), b: nearestPreferred(near, resSeries) };
     },
+    capRatioPair: (ratio, near) => {
+      const p = bestRatioPair(ratio, capSeries, { raMin: (ratio * near) / 3.3, raMax: ratio * near * 3.3, rbMin: near / 3.3, rbMax: near * 3.3 });
+      return p ? { a: p.ra, b: p.rb } : { a: nearestPreferred(ratio * near, capSeries), b: nearestPreferred(near, capSeries) };
+    },
   };
 }
 
@@ -326,7 +330,7 @@ export function computeFilter(kind: "lowpass" | "highpass" | "bandpass", input: 
   out.check(
     checkAtMost("spec.gain", kind === "bandpass" ? "Centre gain" : "Passband gain", gainErrDb, input.gainToleranceDb, {
       pass: `The ${kind === "bandpass" ? "centre" : "passband"} gain with ${part.name} is ${db(refReal).toFixed(3)} dB (${refReal.toPrecision(5)} V/V), within ±${input.gainToleranceDb} dB of ${db(wantGain).toFixed(3)} dB.`,
-      fail: `The ${kind === "bandpass" ? "centre" : "passband"} gain with ${part.name} is ${db(refReal).toFixed(3)} dB (${refReal.toPrecision(5)} V/V), ${gainErrDb.toFixed(3)} dB from ${db(wantGain).toFixed(3)} dB (allowed ±${input.gainToleranceDb} dB). ${design.gainNote ? "The topology cannot set this gain (see above)." : "Use a denser resistor series for the gain-setting resistors or a faster op-amp."}`,
+      fail: `The ${kind === "bandpass" ? "centre" : "passband"} gain with ${part.name} is ${db(refReal).toFixed(3)} dB (${refReal.toPrecision(5)} V/V), ${gainErrDb.toFixed(3)} dB from ${db(wantGain).toFixed(3)} dB (allowed ±${input.gainToleranceDb} dB). ${design.gainNote ? "The topology cannot set this gain (see above)." : kind === "highpass" && cascade?.topology === "mfb" ? "Multiple-feedback high-pass sections set their gain by the capacitor ratio C1/C3, which a coarse capacitor series cannot match: choose E24 capacitors, or keep these sections at unity gain and take the gain in an inverting first-order stage." : "Use a denser resistor series for the gain-setting resistors or a faster op-amp."}`,
     }),
   );
   const magAtStop = magReal(input.stopbandFreq);

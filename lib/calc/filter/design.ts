@@ -16,7 +16,7 @@
  * - multiple-feedback low-pass, gain H: C1/C2 ≥ 4Q²(1 + H), R2 + R3(1 + H) = 1/(ω₀·Q·C2),
  *   R2·R3 = 1/(ω₀²·C1·C2), R1 = R2/H.
  * - unity-gain Sallen-Key high-pass (equal capacitors): R1 = 1/(2Q·ω₀·C), R2 = 2Q/(ω₀·C).
- * - multiple-feedback high-pass (C1 = C2 = C, C3 = C/H): R1 = 1/(ω₀·Q·(C1+C2+C3)),
+ * - multiple-feedback high-pass (C1 = C2, C1/C3 = H from the best series pair): R1 = 1/(ω₀·Q·(C1+C2+C3)),
  *   R2 = Q·(C1+C2+C3)/(ω₀·C2·C3).
  * - multiple-feedback band-pass (C1 = C2 = C, centre gain H < 2Q²): R3 = 2Q/(ω₀·C),
  *   R1 = Q/(H·ω₀·C), R2 = Q/(ω₀·C·(2Q² − H)).
@@ -51,6 +51,8 @@ export interface ValuePicker {
    * to `near` (Ω). Used for gain-setting pairs; falls back to snapping each value.
    */
   resRatioPair?(ratio: number, near: number): { a: number; b: number };
+  /** Optional: a pair (a, b) of capacitor-series values with a/b closest to `ratio`, b near `near` (F). */
+  capRatioPair?(ratio: number, near: number): { a: number; b: number };
 }
 
 /** How the passband gain is shared among the sections that can take gain. */
@@ -265,8 +267,10 @@ function chooseValues(plan: SectionPlan, rL: number, pk: ValuePicker): ChosenVal
       return { calculated: [c, c, r1, r2], values: [c, c, rn(r1), rn(r2)], issues };
     }
     case "mfb/highpass": {
-      const c1 = pk.capNearest(1 / (w0 * rL));
-      const c3 = pk.capNearest(c1 / g);
+      // high-frequency gain = C1/C3: the best ratio pair of the capacitor series
+      const cRef = pk.capNearest(1 / (w0 * rL));
+      const pr = pk.capRatioPair ? pk.capRatioPair(g, cRef / Math.sqrt(g)) : { a: cRef, b: pk.capNearest(cRef / g) };
+      const c1 = pr.a, c3 = pr.b;
       const c2 = c1;
       const sum = c1 + c2 + c3;
       const r1 = 1 / (w0 * q * sum), r2 = (q * sum) / (w0 * c2 * c3);

@@ -117,7 +117,7 @@ function makeEvaluator(design: FilterDesign): Evaluator {
   const sections = design.sections;
   const f3nom = design.kind === "bandpass" ? design.targetFrequency : minus3dBFrequency(design);
   const kind = design.kind;
-  // a Newton step from the nominal −3 dB point, with the nominal slope, brackets each trial's
+  // a Newton step from the nominal −3 dB point with the nominal slope brackets each trial's edge
   const slope = kind === "bandpass" ? 0 : edgeSlope(design, f3nom);
   return {
     coefficients(v, c) {
