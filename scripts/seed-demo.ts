@@ -5,10 +5,11 @@
  */
 import { eq } from "drizzle-orm";
 import { write, read } from "../db/write";
-import { memberships, projectAccess, projects, users, workspaces } from "../db/schema";
+import { memberships, parts, projectAccess, projects, users, workspaces } from "../db/schema";
 import { hashPassword } from "../lib/auth/password";
 import { newId } from "../lib/ids";
 import { trialFields } from "../lib/billing/trial";
+import { DEMO_OPAMPS, DEMO_REFERENCES } from "../lib/calc/core/demo-parts";
 
 export const DEMO_SLUG = "fenwick-lane";
 export const DEMO_PASSWORD = "loopwright-demo";
@@ -51,6 +52,13 @@ export async function seedDemo(): Promise<DemoLogin[]> {
       ...projectRows
         .filter((p) => p.clientName === "Northmoor Instruments")
         .map((p) => w.insert(projectAccess).values({ projectId: p.id, userId: ids.client, workspaceId: wsId, createdAt: now })),
+      // The parts library: the invented demo parts (lib/calc/core/demo-parts.ts), SI units.
+      w.insert(parts).values(
+        [...DEMO_OPAMPS.map((p) => ["opamp", p] as const), ...DEMO_REFERENCES.map((p) => ["reference", p] as const)].map(([kind, p]) => {
+          const { name, ...params } = p as unknown as { name: string } & Record<string, number | string>;
+          return { id: newId(), workspaceId: wsId, kind, name, params, notes: "Demo part with invented values.", createdBy: ids.owner, createdAt: now, updatedAt: now };
+        }),
+      ),
     ]);
   });
   return logins;

@@ -11,19 +11,9 @@
  */
 import { fileTypeFromBuffer } from "file-type";
 import { AppError } from "@/lib/errors";
+import { ACCEPTED_LABEL, ACCEPTED_TYPES, type AcceptedMime } from "./limits";
 
-/** The accepted types: MIME type → extensions (first is the canonical one) and a label. */
-export const ACCEPTED_TYPES = {
-  "image/png": { exts: ["png"], label: "PNG image" },
-  "image/jpeg": { exts: ["jpg", "jpeg"], label: "JPEG image" },
-  "image/svg+xml": { exts: ["svg"], label: "SVG drawing" },
-  "application/pdf": { exts: ["pdf"], label: "PDF document" },
-} as const;
-
-export type AcceptedMime = keyof typeof ACCEPTED_TYPES;
-
-/** The types in words, for messages and the upload control. */
-export const ACCEPTED_LABEL = "PNG, JPEG or SVG images and PDF documents";
+export { ACCEPTED_LABEL, ACCEPTED_TYPES, type AcceptedMime } from "./limits";
 
 /** The type detected from the bytes. */
 export interface DetectedType {

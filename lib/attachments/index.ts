@@ -16,9 +16,9 @@ import { newId, sha256Hex } from "@/lib/ids";
 import { auditInsert } from "@/lib/audit";
 import type { WorkspaceContext } from "@/lib/auth/guard";
 import { detectType, safeFilename } from "./detect";
+import { ATTACHMENT_MAX_BYTES } from "./limits";
 
-/** Largest attachment, bytes: 10 MB = 10 × 1024 × 1024. */
-export const ATTACHMENT_MAX_BYTES = 10 * 1024 * 1024;
+export { ATTACHMENT_MAX_BYTES } from "./limits";
 
 /** An attachment as listed (no bytes). */
 export interface AttachmentDto {
