@@ -437,13 +437,17 @@ export function computeGainStage(input: GainStageInput): CalcOutput {
   }
   const eno = b.formula({ key: "eno_total", label: "Total output noise (rms)", symbol: "Eno", expr: "sqrt(eno_en^2 + eno_in^2 + eno_r^2)", unit: "V", reference: REF.noise }, {}, N);
   b.formula({ key: "eni_total", label: "Input-referred noise (rms)", symbol: "Eni", expr: "eno_total / abs(gain_ideal)", unit: "V" }, {}, N);
-  const snr = b.formula({ key: "snr", label: "SNR at full amplitude", symbol: "SNR", expr: "20 * log10(Vpk / sqrt(2) / eno_total)", unit: "dB", reference: "definition (sine rms Vo,pk/√2 over rms noise)" }, {}, N);
-  b.check(
-    checkAtLeast("noise.snr", "Signal-to-noise ratio", snr, input.snrMin, {
-      pass: () => `SNR ${q(snr, "dB")} at ${q(input.voutPeak, "V")} peak (output noise ${q(eno, "V")} rms, ${q(input.fNoiseLow, "Hz")} to the closed-loop pole) meets the required ${q(input.snrMin, "dB")}.`,
-      fail: () => `SNR ${q(snr, "dB")} at ${q(input.voutPeak, "V")} peak (output noise ${q(eno, "V")} rms) is below the required ${q(input.snrMin, "dB")}; ${f.value("eno_en") >= Math.max(f.value("eno_in"), f.value("eno_r")) ? "the op-amp's voltage noise dominates: choose a lower-en part or limit the bandwidth with a filter" : f.value("eno_r") >= f.value("eno_in") ? "resistor noise dominates: lower the resistances" : "current noise dominates: lower the resistances or choose a part with lower in"}.`,
-    }),
-  );
+  if (eno > 0) {
+    const snr = b.formula({ key: "snr", label: "SNR at full amplitude", symbol: "SNR", expr: "20 * log10(Vpk / sqrt(2) / eno_total)", unit: "dB", reference: "definition (sine rms Vo,pk/√2 over rms noise)" }, {}, N);
+    b.check(
+      checkAtLeast("noise.snr", "Signal-to-noise ratio", snr, input.snrMin, {
+        pass: () => `SNR ${q(snr, "dB")} at ${q(input.voutPeak, "V")} peak (output noise ${q(eno, "V")} rms, ${q(input.fNoiseLow, "Hz")} to the closed-loop pole) meets the required ${q(input.snrMin, "dB")}.`,
+        fail: () => `SNR ${q(snr, "dB")} at ${q(input.voutPeak, "V")} peak (output noise ${q(eno, "V")} rms) is below the required ${q(input.snrMin, "dB")}; ${f.value("eno_en") >= Math.max(f.value("eno_in"), f.value("eno_r")) ? "the op-amp's voltage noise dominates: choose a lower-en part or limit the bandwidth with a filter" : f.value("eno_r") >= f.value("eno_in") ? "resistor noise dominates: lower the resistances" : "current noise dominates: lower the resistances or choose a part with lower in"}.`,
+      }),
+    );
+  } else {
+    b.check(makeCheck("noise.snr", "warning", "Signal-to-noise ratio", "The part has no voltage or current noise entered and the circuit has no resistor noise, so the SNR cannot be stated; enter the part's noise densities."));
+  }
 
   // ---- Stability --------------------------------------------------------------------------------
   const S = "Stability";

@@ -361,9 +361,12 @@ export function formatNumber(value: number, digits = 4): string {
   const rounded = Number(value.toPrecision(digits));
   const exp = Math.floor(Math.log10(Math.abs(rounded)));
   if (exp >= 7 || exp < -4) {
-    const m = rounded / 10 ** exp;
-    const sup = String(exp).split("").map((c) => SUPERSCRIPT[c]).join("");
-    return `${withMinus(plain(m, digits))}×10${sup}`;
+    // Mantissa and exponent from the decimal text (safe for subnormal numbers, where 10^exp
+    // underflows to 0).
+    const [m, e] = value.toExponential(Math.max(0, digits - 1)).split("e");
+    const mant = m.includes(".") ? m.replace(/\.?0+$/, "") : m;
+    const sup = String(Number(e)).split("").map((c) => SUPERSCRIPT[c]).join("");
+    return `${withMinus(mant)}×10${sup}`;
   }
   return withMinus(plain(rounded, digits));
 }

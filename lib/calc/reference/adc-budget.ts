@@ -119,7 +119,7 @@ export function computeAdcBudget(input: AdcBudgetInput): CalcOutput {
   b.formula({ key: "e_rss_ppm", label: "Total error, RSS", symbol: "εrss", expr: "e_rss / Vref", unit: "ppm", scale: "ppm" }, {}, T);
   const wcLsb = b.formula({ key: "e_wc_lsb", label: "Total error at full scale, worst case", symbol: "εwc,LSB", expr: "e_wc / Vref * 2^N", unit: "LSB", reference: REF.lsb }, {}, T);
   const rssLsb = b.formula({ key: "e_rss_lsb", label: "Total error at full scale, RSS", symbol: "εrss,LSB", expr: "e_rss / Vref * 2^N", unit: "LSB", reference: REF.lsb }, {}, T);
-  if (wc > 0) b.formula({ key: "bits_supported", label: "Resolution the reference supports to ½ LSB (worst case)", symbol: "Nref", expr: "log2(Vref / (2 * e_wc))", unit: "bit" }, {}, T);
+  if (wc > 0 && Number.isFinite(r.vNom / (2 * wc))) b.formula({ key: "bits_supported", label: "Resolution the reference supports to ½ LSB (worst case)", symbol: "Nref", expr: "log2(Vref / (2 * e_wc))", unit: "bit" }, {}, T);
 
   const terms = [
     { key: "e_init", label: input.calibrated ? "Initial accuracy (calibrated out)" : "Initial accuracy" },
