@@ -8,6 +8,7 @@ import { demoOpAmp, toRawPart } from "../core/demo-parts";
 import { computeFilter, filterTypeNetlist } from "./compute";
 import { bandpassFields, bandpassSchema } from "./schema";
 
+/** The band-pass calculation type (one multiple-feedback section). */
 export const bandpassType: CalcType<typeof bandpassSchema> = {
   id: "filter.bandpass",
   pack: "filter",

@@ -28,6 +28,7 @@ export interface OpAmpElement {
   out: string;
 }
 
+/** Any element of a circuit. */
 export type CircuitElement = PassiveElement | OpAmpElement;
 
 /** A circuit with one voltage-driven input node and one output node. */

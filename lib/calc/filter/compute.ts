@@ -145,6 +145,13 @@ export function computeFilter(kind: "lowpass" | "highpass" | "bandpass", input: 
     const names: Record<string, string> = { K: `s${s.index}_K`, Q: `s${s.index}_Q` };
     s.variant.parts.forEach((p, j) => (names[p.name] = s.refs[j]));
     const grp = `Section ${s.index}`;
+    const ps = design.prototype?.sections[s.index - 1];
+    if (cascade && ps) {
+      sheet.eval(
+        { key: `s${s.index}_f0t`, label: `Section ${s.index} target ${s.variant.order === 1 ? "pole" : "natural"} frequency`, symbol: `f₀,${s.index},target`, expr: kind === "lowpass" ? `fc * W${s.index}` : `fc / W${s.index}`, unit: "Hz", reference: "Low-pass prototype scaled to the cutoff (s → s/ω_c; high-pass: s → ω_c/s)" },
+        { fc: { value: cascade.cutoff, unit: "Hz", symbol: "f_c" }, [`W${s.index}`]: { value: ps.w0, unit: "", symbol: `Ω${s.index}`, digits: 6 } },
+      );
+    }
     const ref = "Derived from the section's nodal equations (ideal op-amp); agrees with Carter & Mancini, Op Amps for Everyone, 5th ed., ch. 16";
     if (ex.k) out.formula({ key: `s${s.index}_K`, label: `Section ${s.index} amplifier gain`, symbol: `K${s.index}`, expr: renameVariables(ex.k, names), unit: "V/V", reference: "Non-inverting amplifier gain" }, {}, grp);
     out.formula({ key: `s${s.index}_f0`, label: `Section ${s.index} achieved ${s.variant.order === 1 ? "pole frequency" : "natural frequency"}`, symbol: `f₀,${s.index}`, expr: renameVariables(ex.f0, names), unit: "Hz", reference: ref }, {}, grp);
@@ -319,7 +326,9 @@ export function computeFilter(kind: "lowpass" | "highpass" | "bandpass", input: 
   // ---- specification checks (finite-GBW response) ---------------------------------------------
   const fTol = input.frequencyTolerance;
   const fDev = Math.abs(f3Real / targetF - 1);
-  out.check(
+  if (!Number.isFinite(f3Real)) {
+    out.check(makeCheck("spec.frequency", "fail", kind === "bandpass" ? "Centre frequency" : "−3 dB frequency", `With ${part.name} (GBW ${fmt(part.gbw, "Hz")}) the response has no ${kind === "bandpass" ? "peak" : "−3 dB point"} near the target ${fmt(targetF, "Hz", 5)} (ideal op-amp: ${fmt(f3Ideal, "Hz", 5)}): the op-amp is far too slow for this design. Choose a part with a much higher GBW.`, -1));
+  } else out.check(
     checkAtMost("spec.frequency", kind === "bandpass" ? "Centre frequency" : "−3 dB frequency", fDev, fTol, {
       pass: `With ${part.name} and the chosen values the ${kind === "bandpass" ? "peak" : "−3 dB"} frequency is ${fmt(f3Real, "Hz", 5)}, ${pct(f3Real / targetF - 1, 2)} from the target ${fmt(targetF, "Hz", 5)} (allowed ±${pct(fTol, 1)}); with an ideal op-amp it is ${fmt(f3Ideal, "Hz", 5)}.`,
       fail: `With ${part.name} the ${kind === "bandpass" ? "peak" : "−3 dB"} frequency is ${fmt(f3Real, "Hz", 5)}, ${pct(f3Real / targetF - 1, 2)} from the target ${fmt(targetF, "Hz", 5)}, outside ±${pct(fTol, 1)} (ideal op-amp: ${fmt(f3Ideal, "Hz", 5)}). ${Math.abs(f3Ideal / targetF - 1) > fTol ? "Use a denser resistor series or trim the section resistors." : "The op-amp's GBW causes the shift: choose a faster part."}`,
@@ -330,7 +339,7 @@ export function computeFilter(kind: "lowpass" | "highpass" | "bandpass", input: 
   out.check(
     checkAtMost("spec.gain", kind === "bandpass" ? "Centre gain" : "Passband gain", gainErrDb, input.gainToleranceDb, {
       pass: `The ${kind === "bandpass" ? "centre" : "passband"} gain with ${part.name} is ${db(refReal).toFixed(3)} dB (${refReal.toPrecision(5)} V/V), within ±${input.gainToleranceDb} dB of ${db(wantGain).toFixed(3)} dB.`,
-      fail: `The ${kind === "bandpass" ? "centre" : "passband"} gain with ${part.name} is ${db(refReal).toFixed(3)} dB (${refReal.toPrecision(5)} V/V), ${gainErrDb.toFixed(3)} dB from ${db(wantGain).toFixed(3)} dB (allowed ±${input.gainToleranceDb} dB). ${design.gainNote ? "The topology cannot set this gain (see above)." : kind === "highpass" && cascade?.topology === "mfb" ? "Multiple-feedback high-pass sections set their gain by the capacitor ratio C1/C3, which a coarse capacitor series cannot match: choose E24 capacitors, or keep these sections at unity gain and take the gain in an inverting first-order stage." : "Use a denser resistor series for the gain-setting resistors or a faster op-amp."}`,
+      fail: `The ${kind === "bandpass" ? "centre" : "passband"} gain with ${part.name} is ${db(refReal).toFixed(3)} dB (${refReal.toPrecision(5)} V/V), ${gainErrDb.toFixed(3)} dB from ${db(wantGain).toFixed(3)} dB (allowed ±${input.gainToleranceDb} dB). ${design.gainNote ? "The topology cannot set this gain (see above)." : Math.abs(db(kind === "bandpass" ? Math.abs(design.sections[0].achieved.gain) : Math.abs(overallGain)) - db(wantGain)) <= input.gainToleranceDb ? `With an ideal op-amp the chosen values give ${db(Math.abs(kind === "bandpass" ? design.sections[0].achieved.gain : overallGain)).toFixed(3)} dB, so the shortfall comes from the op-amp's GBW: choose a faster part.` : kind === "highpass" && cascade?.topology === "mfb" ? "Multiple-feedback high-pass sections set their gain by the capacitor ratio C1/C3, which a coarse capacitor series cannot match: choose E24 capacitors, or keep these sections at unity gain and take the gain in an inverting first-order stage." : "Use a denser resistor series for the gain-setting resistors or a faster op-amp."}`,
     }),
   );
   const magAtStop = magReal(input.stopbandFreq);
@@ -459,14 +468,18 @@ export function computeFilter(kind: "lowpass" | "highpass" | "bandpass", input: 
     columns: [
       { key: "section", label: "Section" },
       { key: "f0", label: "f₀ mean ± σ", align: "right" },
+      { key: "f0p", label: "f₀ 0.135 … 99.865 %", align: "right" },
       { key: "f0wc", label: "f₀ worst case", align: "right" },
       { key: "q", label: "Q mean ± σ", align: "right" },
+      { key: "qp", label: "Q 0.135 … 99.865 %", align: "right" },
       { key: "qwc", label: "Q worst case", align: "right" },
     ],
     rows: design.sections.map((s, i) => ({
       section: String(s.index),
       f0: `${fmt(mc.sections[i].f0.mean, "Hz", 5)} ± ${fmt(mc.sections[i].f0.std, "Hz", 3)}`,
+      f0p: `${fmt(mc.sections[i].f0.percentiles[0].value, "Hz", 5)} … ${fmt(mc.sections[i].f0.percentiles[4].value, "Hz", 5)}`,
       f0wc: `${fmt(wc.sections[i].f0.min, "Hz", 5)} … ${fmt(wc.sections[i].f0.max, "Hz", 5)}`,
+      qp: s.variant.order === 2 ? `${mc.sections[i].q.percentiles[0].value.toFixed(4)} … ${mc.sections[i].q.percentiles[4].value.toFixed(4)}` : "—",
       q: s.variant.order === 2 ? `${mc.sections[i].q.mean.toFixed(4)} ± ${mc.sections[i].q.std.toFixed(4)}` : "—",
       qwc: s.variant.order === 2 ? `${wc.sections[i].q.min.toFixed(4)} … ${wc.sections[i].q.max.toFixed(4)}` : "—",
     })),

@@ -99,6 +99,7 @@ export interface BandpassSpec {
   capacitorTolerance: number;
 }
 
+/** Any filter specification. */
 export type FilterSpec = CascadeSpec | BandpassSpec;
 
 /** One component as designed. */

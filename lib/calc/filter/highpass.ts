@@ -11,6 +11,7 @@ import { cascadeFields, cascadeSchema } from "./schema";
 
 const schema = cascadeSchema("highpass");
 
+/** The high-pass calculation type. */
 export const highpassType: CalcType<typeof schema> = {
   id: "filter.highpass",
   pack: "filter",

@@ -4,6 +4,7 @@ import { bandpassType } from "./bandpass";
 import { highpassType } from "./highpass";
 import { lowpassType } from "./lowpass";
 
+/** The filter pack's calculation types (one signature pattern: same fields, same compute path). */
 export const filterTypes: CalcType[] = [lowpassType, highpassType, bandpassType];
 
 export { lowpassType, highpassType, bandpassType };

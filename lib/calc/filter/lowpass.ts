@@ -11,6 +11,7 @@ import { cascadeFields, cascadeSchema } from "./schema";
 
 const schema = cascadeSchema("lowpass");
 
+/** The low-pass calculation type. */
 export const lowpassType: CalcType<typeof schema> = {
   id: "filter.lowpass",
   pack: "filter",

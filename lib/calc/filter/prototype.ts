@@ -27,6 +27,7 @@ import { polyRoots, reverseBesselPolynomial, type Cx } from "./polynomial";
 export type ResponseFamily = "butterworth" | "bessel" | "chebyshev";
 /** Chebyshev passband ripples offered, dB. */
 export const CHEBYSHEV_RIPPLES_DB = [0.5, 1, 2, 3] as const;
+/** One of the offered Chebyshev ripples, dB. */
 export type ChebyshevRippleDb = (typeof CHEBYSHEV_RIPPLES_DB)[number];
 /** Meaning of the cutoff frequency (see the module doc). */
 export type CutoffNormalisation = "-3db" | "ripple-edge";

@@ -92,7 +92,9 @@ export const bandpassSchema = z
     if (!(v.supplyPos > v.supplyNeg)) ctx.addIssue({ code: "custom", path: ["supplyPos"], message: "supplyPos must be above supplyNeg" });
   });
 
+/** Parsed input of the low-/high-pass types (SI units). */
 export type CascadeInput = z.output<ReturnType<typeof cascadeSchema>>;
+/** Parsed input of the band-pass type (SI units). */
 export type BandpassInput = z.output<typeof bandpassSchema>;
 
 const realisationFields: FieldSpec[] = [

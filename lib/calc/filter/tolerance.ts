@@ -31,6 +31,7 @@ const TWO_PI = 2 * Math.PI;
 /** Largest Monte Carlo trial count accepted. */
 export const MAX_MONTE_CARLO_TRIALS = 100_000;
 
+/** Distribution of part values within their tolerance. */
 export type ToleranceDistribution = "uniform" | "normal";
 
 /** Monte Carlo options. */

@@ -29,9 +29,13 @@
 import type { CircuitElement } from "./circuit";
 import { GROUND } from "./circuit";
 
+/** Filter kind. */
 export type FilterKind = "lowpass" | "highpass" | "bandpass";
+/** Topology of the second-order sections. */
 export type SecondOrderTopology = "sk-unity" | "sk-equal" | "mfb";
+/** Topology of the first-order section. */
 export type FirstOrderTopology = "rc-buffer" | "inverting";
+/** Any section topology. */
 export type SectionTopology = SecondOrderTopology | FirstOrderTopology | "mfb-bp";
 
 /** Labels as printed in tables and reports. */
