@@ -92,8 +92,8 @@ export function HistogramView({ plot, height = 250, showTitle = true, showDataTo
 
   const key = markerKey(markers);
   return (
-    <PlotFigure title={plot.title} showTitle={showTitle} showDataToggle={showDataToggle} tables={() => histogramTables(plot)} className={className}>
-      <div className="flex min-h-[22px] flex-wrap items-center gap-x-4 text-[12.5px]" data-readout="">
+    <PlotFigure title={plot.title} showTitle={showTitle} showDataToggle={showDataToggle && !layout.empty} tables={() => histogramTables(plot)} className={className}>
+      <div className={layout.empty ? "hidden" : "flex min-h-[22px] flex-wrap items-center gap-x-4 text-[12.5px]"} data-readout="">
         {bin === null ? (
           <span className="text-ink-3">Point at a bar, or focus the plot and use ← →, to read its count.</span>
         ) : (

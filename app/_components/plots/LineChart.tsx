@@ -9,7 +9,7 @@ import { lineTables } from "./dataTable";
 import { readout, readoutOnAxis } from "./format";
 import { layoutLine, type LineLayout } from "./lineLayout";
 import { cursorGrid, interpolateAt, nearestIndex, r1, stepCursor } from "./path";
-import { extent } from "./scale";
+import { extent, isPlottable } from "./scale";
 import { AreaBackground, AreaFrame, AxisLabels, Grid, PlotFigure, Swatch, crisp, svgRootProps, useContainerWidth, useSvgId } from "./parts";
 import { summariseLine } from "./summary";
 import { FONT, seriesStyle, type SeriesStyle } from "./theme";
@@ -51,6 +51,8 @@ export interface LegendEntry {
   name: string;
   style: SeriesStyle;
   values: string[];
+  /** True when the series has no drawable point in any of the plots. */
+  empty: boolean;
 }
 
 /**
@@ -61,6 +63,7 @@ export interface LegendEntry {
  */
 export function legendEntries(plots: LinePlot[], cursor: number | null): LegendEntry[] {
   const entries: Array<LegendEntry & { key: string }> = [];
+  const drawable = (plot: LinePlot, s: LinePlot["series"][number]) => s.x.some((x, i) => i < s.y.length && isPlottable(x, plot.x.scale) && isPlottable(s.y[i], plot.y.scale));
   plots.forEach((plot, pi) => {
     const ye = plot.y.scale === "linear" ? extent(plot.series.flatMap((s) => s.y), "linear") : null;
     const span = ye ? ye[1] - ye[0] : NaN;
@@ -71,16 +74,17 @@ export function legendEntries(plots: LinePlot[], cursor: number | null): LegendE
       const key = `${role}\u0000${s.name}`;
       let e = entries.find((x) => x.key === key);
       if (!e) {
-        e = { key, name: s.name, style, values: plots.map(() => "") };
+        e = { key, name: s.name, style, values: plots.map(() => ""), empty: true };
         entries.push(e);
       }
+      if (e.empty && drawable(plot, s)) e.empty = false;
       if (cursor !== null) {
         const v = interpolateAt(s.x, s.y, cursor, plot.x.scale);
         if (Number.isFinite(v)) e.values[pi] = readoutOnAxis(v, plot.y.unit, span);
       }
     }
   });
-  return entries.map(({ name, style, values }) => ({ name, style, values }));
+  return entries.map(({ name, style, values, empty }) => ({ name, style, values, empty }));
 }
 
 /** The legend: one swatch and name per series. */
@@ -92,7 +96,7 @@ export function Legend({ entries }: { entries: LegendEntry[] }) {
         <li key={i} className="inline-flex items-center gap-1.5">
           <Swatch style={e.style} />
           <span>{e.name}</span>
-          <span className="sr-only">({e.style.words})</span>
+          {e.empty ? <span className="text-ink-3">(no points)</span> : <span className="sr-only">({e.style.words})</span>}
         </li>
       ))}
     </ul>
@@ -273,8 +277,8 @@ export function LinePlotView({ plot, height = 260, showTitle = true, showDataTog
     }
   };
   return (
-    <PlotFigure title={plot.title} showTitle={showTitle} showDataToggle={showDataToggle} tables={() => lineTables(plot)} className={className} legend={<Legend entries={entries} />}>
-      <Readout xText={xText} entries={entries} hint={READOUT_HINT} />
+    <PlotFigure title={plot.title} showTitle={showTitle} showDataToggle={showDataToggle && !layout.empty} tables={() => lineTables(plot)} className={className} legend={<Legend entries={entries} />}>
+      {layout.empty ? null : <Readout xText={xText} entries={entries} hint={READOUT_HINT} />}
       <div ref={ref} className="mt-1">
         <LineSvg layout={layout} plot={plot} cursor={cursor} onCursor={onCursor} grid={grid} ariaLabel={summariseLine(plot)} describedBy={liveId} />
       </div>

@@ -81,8 +81,13 @@ export function placeMarkerLabels(items: Array<{ px: number; text: string }>, le
   for (const i of order) {
     const { px, text } = items[i];
     const w = textWidth(text);
-    const anchor: "start" | "end" = px + 4 + w <= right - 2 ? "start" : "end";
-    const textX = anchor === "start" ? px + 4 : px - 4;
+    let anchor: "start" | "end" = px + 4 + w <= right - 2 ? "start" : "end";
+    let textX = anchor === "start" ? px + 4 : px - 4;
+    if (anchor === "end" && textX - w < left + 2) {
+      // Fits on neither side of its line: as far right as it fits, starting inside the area.
+      anchor = "start";
+      textX = Math.max(left + 2, right - 2 - w);
+    }
     const span: [number, number] = anchor === "start" ? [px - 1, textX + w + 6] : [textX - w - 6, px + 1];
     if (span[0] < left) span[0] = left;
     let row = rows.findIndex((r) => r.every(([a, b]) => span[1] <= a || span[0] >= b));
@@ -101,7 +106,8 @@ export const MARKER_MERGE_PX = 3;
 
 /**
  * Markers that fall within {@link MARKER_MERGE_PX} of each other on the axis, as label groups:
- * one label ("nominal 20 kHz · mean 20 kHz") at the group's leftmost marker.
+ * one label at the group's leftmost marker: "nominal 20 kHz · mean 20.01 kHz", or
+ * "target · nominal 20 kHz" when the values read the same.
  * @param markers the markers (drawable ones)
  * @param map value → px
  * @param unit the axis unit
@@ -109,17 +115,21 @@ export const MARKER_MERGE_PX = 3;
  */
 export function groupMarkers(markers: Array<{ label: string; value: number }>, map: (v: number) => number, unit: string): Array<{ px: number; text: string; members: number[] }> {
   const order = markers.map((_, i) => i).sort((a, b) => map(markers[a].value) - map(markers[b].value) || a - b);
-  const groups: Array<{ px: number; text: string; members: number[] }> = [];
+  const groups: Array<{ px: number; members: number[] }> = [];
   for (const i of order) {
     const px = map(markers[i].value);
-    const text = `${markers[i].label} ${readout(markers[i].value, unit)}`;
     const last = groups[groups.length - 1];
-    if (last && Math.abs(px - map(markers[last.members[last.members.length - 1]].value)) < MARKER_MERGE_PX) {
-      last.members.push(i);
-      last.text += ` · ${text}`;
-    } else groups.push({ px, text, members: [i] });
+    if (last && Math.abs(px - map(markers[last.members[last.members.length - 1]].value)) < MARKER_MERGE_PX) last.members.push(i);
+    else groups.push({ px, members: [i] });
   }
-  return groups;
+  return groups.map((g) => {
+    const values = g.members.map((i) => readout(markers[i].value, unit));
+    // Markers that read the same value share it: "target · nominal 1 kHz".
+    const text = values.every((v) => v === values[0])
+      ? `${g.members.map((i) => markers[i].label).join(" · ")} ${values[0]}`
+      : g.members.map((i, k) => `${markers[i].label} ${values[k]}`).join(" · ");
+    return { ...g, text };
+  });
 }
 
 /**
@@ -209,5 +219,9 @@ export function layoutHistogram(plot: HistogramPlot, opts: { width: number; heig
     lead.anchor = relabel[k].anchor;
     lead.textY = top + 4 + FONT.tick + relabel[k].row * ROW;
   });
+  if (total === 0) {
+    x.ticks = [];
+    y.ticks = [];
+  }
   return { width, height, area: { left, top, right, bottom }, x, y, bars, markers: markerLayouts, total, empty: total === 0 };
 }

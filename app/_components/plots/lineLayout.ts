@@ -142,7 +142,7 @@ export function yAxisSpec(plot: LinePlot, lengthPx: number): YAxisSpec {
     for (let i = 0; i < n; i++) if (Number.isFinite(s.x[i]) && (plot.x.scale === "linear" || s.x[i] > 0)) ys.push(s.y[i]);
   }
   const e = extent(ys, kind);
-  const target = Math.max(2, Math.round(lengthPx / 40));
+  const target = Math.max(2, Math.round(lengthPx / (unit === "°" ? 34 : 40)));
   if (kind === "log") {
     const [lo, hi] = e ? logDomain(e[0], e[1]) : [1, 10];
     const ticks = logTicks(lo, hi, { maxLabels: Math.max(2, Math.floor(lengthPx / 24)), minors: lengthPx / Math.max(1, Math.log10(hi / lo)) >= 40 });
@@ -199,7 +199,7 @@ export function yMargin(spec: YAxisSpec): number {
 export function xTicks(kind: ScaleKind, domain: [number, number], unit: string, scale: Scale, lengthPx: number): { ticks: AxisTick[]; unitText: string } {
   if (kind === "log") {
     const decades = Math.max(1e-9, Math.log10(domain[1] / domain[0]));
-    const ticks = logTicks(domain[0], domain[1], { maxLabels: Math.max(2, Math.floor(lengthPx / 64)), minors: lengthPx / decades >= 44 });
+    const ticks = logTicks(domain[0], domain[1], { maxLabels: Math.max(2, Math.floor(lengthPx / 52)), minors: lengthPx / decades >= 44 });
     return { ticks: ticks.map((t) => ({ value: t.value, px: scale.map(t.value), major: t.major, ...(t.label ? { text: logTickLabel(t.value, unit) } : {}) })), unitText: unit };
   }
   const lt = linearTicks(domain[0], domain[1], Math.max(2, Math.round(lengthPx / 90)));
@@ -243,6 +243,12 @@ export function layoutLine(plot: LinePlot, opts: LineLayoutOptions): LineLayout 
     return { index, name: s.name, role, style, d: pathData(runs), dots: isolatedPoints(runs), points: runs.reduce((n, r) => n + r.length, 0) };
   });
   series.sort((a, b) => ROLE_ORDER[a.role] - ROLE_ORDER[b.role] || a.index - b.index);
+  const empty = series.every((s) => s.points === 0);
+  // Without data, invented ticks would look like a scale: keep only the frame and titles.
+  if (empty) {
+    x.ticks = [];
+    y.ticks = [];
+  }
   return {
     width,
     height,
@@ -250,7 +256,7 @@ export function layoutLine(plot: LinePlot, opts: LineLayoutOptions): LineLayout 
     x,
     y,
     series,
-    empty: series.every((s) => s.points === 0),
+    empty,
     ...(ySpec.note ? { note: ySpec.note } : {}),
     showXAxis,
   };

@@ -44,8 +44,9 @@ export function seriesStyle(role: LineSeries["role"], otherIndex = 0): SeriesSty
   }
 }
 
-/** Drawing order: reference lines first, the real curve last (on top). */
-export const ROLE_ORDER: Record<NonNullable<LineSeries["role"]>, number> = { limit: 0, other: 1, ideal: 2, real: 3 };
+/** Drawing order: reference lines first, then the real curve, the dashed ideal curve on top, so
+ * where the two coincide both stay visible (copper between the grey dashes). */
+export const ROLE_ORDER: Record<NonNullable<LineSeries["role"]>, number> = { limit: 0, other: 1, real: 2, ideal: 3 };
 
 /** Font sizes in px. */
 export const FONT = { tick: 11, title: 11.5, label: 11.5 } as const;

@@ -44,7 +44,8 @@ describe("layoutLine", () => {
   it("lays out a Bode magnitude: decade labels, one path per series, dB title", () => {
     const l = layoutLine(magnitudePlot(), { width: 640, height: 260 });
     expect(l.x.ticks.filter((t) => t.text).map((t) => t.text)).toEqual(["10 Hz", "100 Hz", "1 kHz", "10 kHz", "100 kHz", "1 MHz", "10 MHz"]);
-    expect(l.series.map((s) => s.role)).toEqual(["limit", "ideal", "real"]); // drawing order
+    // drawing order: limit, real, then the dashed ideal on top so both show where they coincide
+    expect(l.series.map((s) => s.role)).toEqual(["limit", "real", "ideal"]);
     expect(l.series.every((s) => s.d.startsWith("M"))).toBe(true);
     expect(l.y.title).toBe("Gain (dB)");
     expect(l.x.title).toBe("Frequency (Hz)");
@@ -113,10 +114,20 @@ describe("histogram markers", () => {
     expect(p.anchor).toBe("end");
     expect(p.textX).toBe(606);
   });
-  it("merges markers closer than 3 px into one label", () => {
-    const g = groupMarkers([{ label: "target", value: 20e3 }, { label: "nominal", value: 20.001e3 }, { label: "limit", value: 21e3 }], (v) => (v - 19e3) / 5, "Hz");
+  it("merges markers closer than 3 px into one label, sharing a value that reads the same", () => {
+    const map = (v: number) => (v - 19e3) / 5;
+    const g = groupMarkers([{ label: "target", value: 20e3 }, { label: "nominal", value: 20.001e3 }, { label: "limit", value: 21e3 }], map, "Hz");
     expect(g.map((x) => x.members)).toEqual([[0, 1], [2]]);
-    expect(g[0].text).toBe("target 20 kHz · nominal 20 kHz");
+    expect(g[0].text).toBe("target · nominal 20 kHz"); // 20.001 kHz reads "20 kHz" at 4 figures
+    const h = groupMarkers([{ label: "nominal", value: 20e3 }, { label: "mean", value: 20.01e3 }], map, "Hz");
+    expect(h[0].text).toBe("nominal 20 kHz · mean 20.01 kHz");
+  });
+  it("keeps a label that fits on neither side of its line inside the area", () => {
+    const text = "x".repeat(60); // 396 px wide
+    const [p] = placeMarkerLabels([{ px: 300, text }], 40, 500);
+    expect(p.anchor).toBe("start");
+    expect(p.textX).toBeGreaterThanOrEqual(42);
+    expect(p.textX + text.length * 6.6).toBeLessThanOrEqual(498);
   });
   it("lays out one bar per bin and a count axis that covers the fullest bin", () => {
     const plot = histogramPlot();

@@ -64,11 +64,16 @@ describe("edge cases of line plots", () => {
     expect(count(html, /data-dot=""/g)).toBe(1);
     expect(count(html, /<path [^>]*data-role=/g)).toBe(1);
     expect(html).not.toContain("NaN");
+    expect(html).toMatch(/empty<\/span><span[^>]*>\(no points\)/);
+    expect(count(html, /\(no points\)/g)).toBe(1);
   });
   it("says so when there is nothing to plot", () => {
     const html = renderToStaticMarkup(h(LinePlotView, { plot: { ...magnitudePlot(), series: [] } }));
     expect(texts(html)).toContain("No points to plot");
     expect(attr(html, 'role="img"', "aria-label")).toContain("No series.");
+    // no invented scale and nothing to show as data
+    expect(texts(html).filter((t) => /\d/.test(t))).toEqual([]);
+    expect(html).not.toContain("Show data");
   });
   it("draws a linear x axis with a shared prefix (amplitude in V)", () => {
     const amps = Array.from({ length: 31 }, (_, i) => i * 0.5);
@@ -118,7 +123,7 @@ describe("HistogramView", () => {
     expect(count(html, /data-count=/g)).toBe(40);
     expect(count(html, /<line [^>]*data-marker=/g)).toBe(5);
     const t = texts(html);
-    expect(t).toContain("target 20 kHz · nominal (chosen values) 20 kHz"); // 1 Hz apart: one label
+    expect(t).toContain("target · nominal (chosen values) 20 kHz"); // 1 Hz apart: one label
     expect(t).toContain("99.865 % percentile 20.8 kHz");
     expect(t).toContain("Count (of 2000 samples)");
     expect(t).toContain("−3 dB frequency (kHz)");
