@@ -1,0 +1,57 @@
+/**
+ * amplifier.difference against the standard results for the four-resistor difference amplifier.
+ */
+import { describe, expect, it } from "vitest";
+import { differenceAmplifier, cornerCmrr } from "@/lib/calc/amplifier/difference";
+import type { CalcType, RawInputs } from "@/lib/calc/core/types";
+import { expectWellFormed } from "../../unit/calc/core/arbitraries";
+import { rel, run } from "./helpers";
+
+const T = differenceAmplifier as unknown as CalcType;
+const base: RawInputs = { gain: "10", series: "E24", r1Target: "10k", tolerance: "1", cmrrOpampDb: "200" };
+
+describe("difference amplifier", () => {
+  it("worst-case CMRR from tolerance: (1 + R2/R1)/(4p) (Franco 4th ed., ch. 2)", () => {
+    // R1 = R3 = 10 kΩ, R2 = R4 = 100 kΩ, 1 % resistors: 11 / 0.04 = 275 → 48.79 dB (hand-worked
+    // from Franco's expression). The op-amp CMRR is set to 200 dB so it does not count.
+    const { v } = run(T, base);
+    expect(v("gain")).toBe(10);
+    expect(v("cmrr_r")).toBeCloseTo(275, 9);
+    // The exact 16-corner value: for p = 1 % it lies within 2p of the linearised bound.
+    expect(rel(v("cmrr_r_corners"), 275)).toBeLessThan(0.02);
+    expect(v("cmrr_total_db")).toBeCloseTo(20 * Math.log10(v("cmrr_r_corners")), 6);
+  });
+
+  it("corner enumeration converges to the linearised bound as p → 0 (independent check of both)", () => {
+    // Exact bridge algebra over the 16 corners vs (1+G)/(4p): the difference is O(p).
+    for (const p of [1e-3, 1e-4, 1e-5]) {
+      const { cmrrMin } = cornerCmrr(10e3, 100e3, p);
+      expect(rel(cmrrMin, 11 / (4 * p))).toBeLessThan(3 * p);
+    }
+  });
+
+  it("op-amp CMRR adds as 1/CMRR = 1/CMRR_r + 1/CMRR_OA (worst case, Franco ch. 5)", () => {
+    // 0.1 % resistors at G = 10: 2750; with a 70 dB op-amp (3162.3): 1/(1/2750 + 1/3162.3) ≈ 1471.
+    const { v } = run(T, { ...base, tolerance: "0.1", cmrrOpampDb: "70" });
+    const cr = v("cmrr_r_corners");
+    expect(v("cmrr_total")).toBeCloseTo(1 / (1 / cr + 1 / 10 ** (70 / 20)), 6);
+  });
+
+  it("common mode at the op-amp inputs: V+ = (G·V2 + Vref)/(1 + G) (Franco ch. 2, hand-worked)", () => {
+    // Vcm up to 10.9 V with 0.2 V peak differential: V2 max = 11 V → V+ = 110/11 = 10 V.
+    const { v, check } = run(T, { ...base, vcmMin: "-10.9", vcmMax: "10.9", vdPeak: "0.2" });
+    expect(v("v_plus_max")).toBeCloseTo(10, 10);
+    expect(v("v_plus_min")).toBeCloseTo(-10, 10);
+    expect(check("icmr.high").severity).toBe("pass"); // LW-OA610 on ±15 V: limit 13.5 V
+  });
+
+  it("unachievable: 80 dB CMRR from 1 % resistors fails with a sentence; common mode beyond the rails fails", () => {
+    const r = run(T, { ...base, cmrrMinDb: "80" });
+    expect(r.check("cmrr").severity).toBe("fail");
+    expect(r.check("cmrr").message).toMatch(/below the required 80 dB/);
+    expectWellFormed(r.out);
+    const cm = run(T, { ...base, gain: "1", vcmMax: "40" });
+    expect(cm.check("icmr.high").severity).toBe("fail");
+    expectWellFormed(cm.out);
+  });
+});
