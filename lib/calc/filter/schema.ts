@@ -7,13 +7,15 @@
 import { z } from "zod";
 import { opAmpParamsSchema } from "../core/parts";
 import type { FieldSpec } from "../core/types";
+import { formatQuantity } from "../core/units";
 import { MAX_MONTE_CARLO_TRIALS } from "./tolerance";
 
 const num = (field: string) => z.number({ error: `${field} must be a number` }).refine(Number.isFinite, { message: `${field} must be finite` });
+const show = (v: number, unit: string) => formatQuantity(v, unit, { digits: 6 });
 const between = (field: string, lo: number, hi: number, unit: string) =>
-  num(field).refine((v) => v >= lo && v <= hi, { message: `${field} must be between ${lo} ${unit} and ${hi} ${unit}`.replace(/ {2}/g, " ") });
+  num(field).refine((v) => v >= lo && v <= hi, { message: `${field} must be between ${show(lo, unit)} and ${show(hi, unit)}` });
 const positiveUpTo = (field: string, hi: number, unit: string) =>
-  num(field).refine((v) => v > 0, { message: `${field} must be greater than 0 ${unit}`.trim() }).refine((v) => v <= hi, { message: `${field} must be at most ${hi} ${unit}`.trim() });
+  num(field).refine((v) => v > 0, { message: `${field} must be greater than ${show(0, unit)}` }).refine((v) => v <= hi, { message: `${field} must be at most ${show(hi, unit)}` });
 const tolerance = (field: string) =>
   num(field)
     .refine((v) => v > 0, { message: `${field} must be greater than 0 %` })
