@@ -104,7 +104,7 @@ export function PartsView({ slug, initial, canManage }: { slug: string; initial:
   const toggleSort = (id: string) => setSort((s) => (s.id === id ? { id, dir: s.dir === "asc" ? "desc" : "asc" } : { id, dir: "asc" }));
 
   return (
-    <div className="grid gap-6 xl:grid-cols-[1fr_400px]">
+    <div className={cx("grid gap-6", canManage && editing ? "xl:grid-cols-[1fr_400px]" : undefined)}>
       <div className="min-w-0">
         <div className="mb-3 flex flex-wrap items-center justify-between gap-3">
           <div role="group" aria-label="Kind of part" className="inline-flex rounded-md border border-rule-strong bg-sheet p-0.5">

@@ -215,7 +215,7 @@ function PreviewRow({ row, cols }: { row: ImportRow; cols: ImportPreview["column
       {cols.map((c) => {
         const bad = c.key in row.errors;
         return (
-          <td key={c.key} className={cx(c.unit ? "num mono" : undefined, bad && "font-semibold text-fail underline decoration-dotted")} aria-invalid={bad || undefined} title={bad ? row.errors[c.key] : undefined}>
+          <td key={c.key} className={cx(c.unit ? "num mono" : c.key === "name" ? "min-w-[14rem]" : undefined, bad && "font-semibold text-fail underline decoration-dotted")} aria-invalid={bad || undefined} title={bad ? row.errors[c.key] : undefined}>
             {row.cells[c.key] ?? ""}
           </td>
         );
