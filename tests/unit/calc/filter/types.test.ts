@@ -114,9 +114,10 @@ describe("a design the op-amp cannot support", () => {
 
 describe("netlist", () => {
   it("is plain SPICE with both op-amp models, an AC card and the design named", () => {
-    const input = parseOk(lowpassType);
-    const ideal = lowpassType.netlist!(input as never, "ideal");
-    const pole = lowpassType.netlist!(input as never, "single-pole");
+    const p = parseRawInputs(lowpassType, lowpassType.defaults);
+    if (!p.ok) throw new Error("defaults do not parse");
+    const ideal = lowpassType.netlist!(p.input, "ideal");
+    const pole = lowpassType.netlist!(p.input, "single-pole");
     expect(ideal).toMatch(/^\* 4th-order Butterworth low-pass/);
     expect(ideal).toMatch(/\nEU1 /);
     expect(ideal).toMatch(/\n\.ac dec \d+ /);
