@@ -110,10 +110,31 @@ export function pdfsig(bytes: Buffer): string {
   });
 }
 
+/** The text with pdftotext's -layout (lines kept as printed: columns side by side). */
+export function pdftotextLayout(bytes: Buffer): string {
+  const bin = tool("pdftotext");
+  return withTempFile(bytes, (file) => execFileSync(bin, ["-layout", "-enc", "UTF-8", file, "-"], { encoding: "utf8" }));
+}
+
 /** The text of the PDF as pdftotext extracts it (reading order, no layout). */
 export function pdftotext(bytes: Buffer): string {
   const bin = tool("pdftotext");
   return withTempFile(bytes, (file) => execFileSync(bin, ["-enc", "UTF-8", file, "-"], { encoding: "utf8" }));
+}
+
+/**
+ * The report's running text without the page furniture (the header and footer lines repeated
+ * on every page), which pdftotext may place between the lines of a block.
+ */
+export function bodyText(text: string): string {
+  const lines = text.split("\n").map((l) => l.trim());
+  const footer = [/^Verification code LW-\S+ verify at \S+$/, /^Issue date \d{4}-\d{2}-\d{2}$/, /^Page \d+ of \d+$/, /^C-\d+ rev\. [A-Z]+ · /];
+  const pages = lines.filter((l) => /^Page \d+ of \d+$/.test(l)).length;
+  const seen = new Map<string, number>();
+  for (const l of lines) seen.set(l, (seen.get(l) ?? 0) + 1);
+  // The running header ("Firm · Project") is the line with a middle dot that appears on every page.
+  const header = (l: string) => pages > 1 && l.includes(" · ") && (seen.get(l) ?? 0) >= pages;
+  return lines.filter((l) => !footer.some((re) => re.test(l)) && !header(l)).join("\n");
 }
 
 /** Whitespace folded to single spaces (pdftotext breaks lines at table cells). */
