@@ -122,6 +122,9 @@ export function HistogramView({ plot, height = 250, showTitle = true, showDataTo
           </defs>
           <AreaBackground area={area} />
           <Grid area={area} x={x} y={y} />
+          {pos >= 0 ? (
+            <rect x={r1(bars[pos].x)} y={area.top} width={r1(Math.max(1, bars[pos].w))} height={area.bottom - area.top} className="fill-ink/8" aria-hidden="true" data-selected-bin="" />
+          ) : null}
           <g clipPath={`url(#${clipId})`} data-bars="">
             {bars.map((b) => (
               <rect

@@ -4,7 +4,7 @@
  * kept), and the table says so. Pure.
  */
 import type { HistogramPlot, LevelsPlot, LinePlot } from "@/lib/calc/core/types";
-import { readout } from "./format";
+import { readout, sharedFormat } from "./format";
 
 /** One small table. Cells are pre-formatted text. */
 export interface DataTable {
@@ -68,6 +68,10 @@ export function histogramTables(plot: HistogramPlot): DataTable[] {
   const bins = Math.min(plot.counts.length, Math.max(0, plot.edges.length - 1));
   const total = plot.counts.slice(0, bins).reduce((a, c) => a + c, 0);
   const unit = plot.x.unit;
+  // One prefix and aligned decimals down each column (bin edges are all of one magnitude).
+  const edge = sharedFormat(plot.edges.slice(0, bins + 1), unit, 5);
+  const shares = plot.counts.slice(0, bins).map((c) => (total > 0 ? (c / total) * 100 : NaN));
+  const share = sharedFormat(shares, "%", 3);
   const tables: DataTable[] = [
     {
       caption: `${plot.x.label}: ${total} samples in ${bins} bins`,
@@ -77,12 +81,7 @@ export function histogramTables(plot: HistogramPlot): DataTable[] {
         { label: "Count", numeric: true },
         { label: "Share", numeric: true },
       ],
-      rows: Array.from({ length: bins }, (_, i) => [
-        readout(plot.edges[i], unit, 5),
-        readout(plot.edges[i + 1], unit, 5),
-        String(plot.counts[i]),
-        total > 0 ? readout((plot.counts[i] / total) * 100, "%", 3) : "—",
-      ]),
+      rows: Array.from({ length: bins }, (_, i) => [edge(plot.edges[i]), edge(plot.edges[i + 1]), String(plot.counts[i]), share(shares[i])]),
     },
   ];
   if (plot.markers && plot.markers.length > 0) {
@@ -103,6 +102,7 @@ export function histogramTables(plot: HistogramPlot): DataTable[] {
  * @param plot the plot
  */
 export function levelsTables(plot: LevelsPlot): DataTable[] {
+  const value = sharedFormat([...plot.levels.map((l) => l.value), ...(plot.bands ?? []).flatMap((b) => [b.from, b.to])], plot.unit, 4);
   const tables: DataTable[] = [
     {
       caption: "Levels",
@@ -111,7 +111,7 @@ export function levelsTables(plot: LevelsPlot): DataTable[] {
         { label: "Kind", numeric: false },
         { label: "Value", numeric: true },
       ],
-      rows: [...plot.levels].sort((a, b) => b.value - a.value).map((l) => [l.label, l.role, readout(l.value, plot.unit, 5)]),
+      rows: [...plot.levels].sort((a, b) => b.value - a.value).map((l) => [l.label, l.role, value(l.value)]),
     },
   ];
   if (plot.bands && plot.bands.length > 0) {
@@ -123,7 +123,7 @@ export function levelsTables(plot: LevelsPlot): DataTable[] {
         { label: "From", numeric: true },
         { label: "To", numeric: true },
       ],
-      rows: plot.bands.map((b) => [b.label, b.role, readout(Math.min(b.from, b.to), plot.unit, 5), readout(Math.max(b.from, b.to), plot.unit, 5)]),
+      rows: plot.bands.map((b) => [b.label, b.role, value(Math.min(b.from, b.to)), value(Math.max(b.from, b.to))]),
     });
   }
   return tables;

@@ -3,7 +3,7 @@
 import { describe, expect, it } from "vitest";
 import type { LinePlot } from "@/lib/calc/core/types";
 import { bodeIdParts, groupPlots } from "@/app/_components/plots/bode";
-import { lineTables, thinIndices } from "@/app/_components/plots/dataTable";
+import { histogramTables, levelsTables, lineTables, thinIndices } from "@/app/_components/plots/dataTable";
 import { groupMarkers, layoutHistogram, markerKind, placeMarkerLabels } from "@/app/_components/plots/histogramLayout";
 import { DB_SPAN_MAX, layoutLine } from "@/app/_components/plots/lineLayout";
 import { layoutLevels, spreadLabels } from "@/app/_components/plots/levelsLayout";
@@ -200,5 +200,20 @@ describe("summaries and tables", () => {
     expect(t[0].rows[0][0]).toBe("10 Hz");
     expect(t[0].note).toBe("Every 9th of 361 samples, and the last.");
     expect(t[1].rows).toEqual([["100 kHz", "\u221240 dB"], ["10 MHz", "\u221240 dB"]]);
+  });
+});
+
+describe("histogram and levels tables", () => {
+  it("align each column to one prefix and one number of decimals", () => {
+    const [bins, markers] = histogramTables(histogramPlot());
+    // edges 19 000 … 21 000 Hz in 50 Hz steps, five figures in kHz
+    expect(bins.rows[0]).toEqual(["19.000 kHz", "19.050 kHz", bins.rows[0][2], bins.rows[0][3]]);
+    expect(bins.rows[39][1]).toBe("21.000 kHz");
+    expect(bins.rows.every((r) => /^\d+\.\d{2} %$/.test(r[3]))).toBe(true);
+    expect(bins.rows.reduce((a, r) => a + Number(r[2]), 0)).toBe(2000);
+    expect(markers.rows[0]).toEqual(["target", "20 kHz"]);
+    const [levels, bands] = levelsTables(levelsPlot());
+    expect(levels.rows).toEqual([["V+", "rail", "5.000 V"], ["mid-supply", "bias", "2.500 V"], ["V−", "rail", "0.000 V"]]);
+    expect(bands.rows[0]).toEqual(["LW-OA210 output range", "allowed", "0.100 V", "4.900 V"]);
   });
 });
