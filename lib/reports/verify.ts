@@ -161,7 +161,8 @@ export async function verifyCode(typed: string): Promise<VerifyResult> {
 /** The verification code a PDF names in its signature reason ("… (LW-XXXX-XXXX)"), if any. */
 export function claimedCodeOf(bytes: Uint8Array): string | undefined {
   const text = Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength).toString("latin1");
-  const all = [...text.matchAll(/\/Reason\s*\([^)]*?\((LW-[0-9A-Z]{4}-[0-9A-Z]{4})\)/g)];
+  // The signature dictionary's literal string, e.g. "/Reason (Issued … rev. B \(LW-7K3Q-9XPA\))".
+  const all = [...text.matchAll(/\/Reason\s*\([^\n]{0,300}?(LW-[0-9A-Z]{4}-[0-9A-Z]{4})/g)];
   const code = all.at(-1)?.[1];
   return code ? (normaliseVerificationCode(code) ?? undefined) : undefined;
 }
