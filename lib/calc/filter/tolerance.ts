@@ -187,8 +187,23 @@ export function figureStats(x: Float64Array, count: number, nominal: number, uni
   }
   if (count === 0) { min = nominal; max = nominal; }
   const mean = count > 0 ? sum / count : nominal;
+  const span = max - min;
+  const lo = span > 0 ? min : min - Math.abs(min) * 1e-6 - 1e-300;
+  const hi = span > 0 ? max : max + Math.abs(max) * 1e-6 + 1e-300;
+  const edges: number[] = [];
+  for (let i = 0; i <= bins; i++) edges.push(lo + ((hi - lo) * i) / bins);
+  const counts = new Array<number>(bins).fill(0);
+  const scale = bins / (hi - lo);
+  // second pass: squared deviations (two-pass variance, numerically safe) and the histogram
   let ss = 0;
-  for (let i = 0; i < count; i++) ss += (x[i] - mean) ** 2;
+  for (let i = 0; i < count; i++) {
+    const v = x[i];
+    ss += (v - mean) * (v - mean);
+    let b = ((v - lo) * scale) | 0;
+    if (b >= bins) b = bins - 1;
+    else if (b < 0) b = 0;
+    counts[b]++;
+  }
   const std = count > 1 ? Math.sqrt(ss / (count - 1)) : 0;
   const work = x.slice(0, count);
   // median first, then each tail inside its half: about 3n element visits in all
@@ -219,17 +234,6 @@ export function figureStats(x: Float64Array, count: number, nominal: number, uni
     byP.set(PERCENTILES[4], pick(PERCENTILES[4], upperInner.k, count - 1).value);
   }
   const percentiles = PERCENTILES.map((p) => ({ p, value: byP.get(p) ?? nominal }));
-  const span = max - min;
-  const lo = span > 0 ? min : min - Math.abs(min) * 1e-6 - 1e-300;
-  const hi = span > 0 ? max : max + Math.abs(max) * 1e-6 + 1e-300;
-  const edges: number[] = [];
-  for (let i = 0; i <= bins; i++) edges.push(lo + ((hi - lo) * i) / bins);
-  const counts = new Array<number>(bins).fill(0);
-  const scale = bins / (hi - lo);
-  for (let i = 0; i < count; i++) {
-    const b = Math.min(bins - 1, Math.max(0, Math.floor((x[i] - lo) * scale)));
-    counts[b]++;
-  }
   return { unit, nominal, mean, std, min, max, percentiles, histogram: { edges, counts } };
 }
 
@@ -263,15 +267,22 @@ function runChunk(design: FilterDesign, ev: Evaluator, rng: Prng, dist: Toleranc
   const c = new Float64Array(5 * design.sections.length);
   const sigma = 1 / 3;
   const orders = design.sections.map((s) => s.variant.order);
-  const rnd = new Float64Array(m * count);
-  if (dist === "uniform") rng.fillSymmetric(rnd);
-  else {
-    rng.fillNormal(rnd);
-    for (let i = 0; i < rnd.length; i++) rnd[i] *= sigma;
-  }
+  // random numbers in blocks of trials (a reused buffer keeps the garbage collector idle)
+  const block = Math.min(count, 256);
+  const rnd = new Float64Array(m * block);
   for (let t = 0; t < count; t++) {
+    const j = t % block;
+    if (j === 0) {
+      const len = m * Math.min(block, count - t);
+      const view = len === rnd.length ? rnd : rnd.subarray(0, len);
+      if (dist === "uniform") rng.fillSymmetric(view);
+      else {
+        rng.fillNormal(view);
+        for (let i = 0; i < len; i++) view[i] *= sigma;
+      }
+    }
     let positive = true;
-    const base = t * m;
+    const base = j * m;
     for (let i = 0; i < m; i++) {
       const x = nom[i] * (1 + tol[i] * rnd[base + i]);
       if (!(x > 0)) positive = false;
