@@ -34,6 +34,21 @@ describe("gain and closed-loop bandwidth", () => {
     expect(rel(v("gain_dc"), 10 / 1.0001)).toBeLessThan(1e-12);
   });
 
+  it("the Bode plot's dominant-pole curve is 3.01 dB down at the computed f₋₃dB (plot and formula agree)", () => {
+    // |H(f3)| = |H(0)|/√2 for a single pole: −10·log10(2) = −3.0103 dB (definition).
+    const { v, out } = run(T, { ...split, gain: "10", series: "E24", rfTarget: "2.7k", cLoad: "0", opamp: part({ gbw: 1e6, aolDb: 100 }) });
+    const plot = out.plots.find((p) => p.id === "bode-magnitude");
+    if (!plot || plot.kind !== "line") throw new Error("no Bode plot");
+    const real = plot.series.find((s) => s.role === "real")!;
+    const f3 = v("f3db");
+    let i = 0;
+    while (real.x[i + 1] < f3) i++;
+    // Interpolate in log frequency between the two grid points around f3 (241-point grid).
+    const t = Math.log(f3 / real.x[i]) / Math.log(real.x[i + 1] / real.x[i]);
+    const atF3 = real.y[i] + t * (real.y[i + 1] - real.y[i]);
+    expect(Math.abs(atF3 - (real.y[0] - 10 * Math.log10(2)))).toBeLessThan(0.02); // interpolation error
+  });
+
   it("worst-case gain from resistor tolerance, hand-worked", () => {
     // G = 1 + Rf(1 ± t)/(Rg(1 ∓ t)) with Rf/Rg = 9, t = 1 %: 1 + 9·1.01/0.99 = 10.1818…
     const { v } = run(T, { ...split, gain: "10", series: "E24", rfTarget: "2.7k", tolerance: "1", opamp: part({ aolDb: 200 }) });
@@ -49,6 +64,8 @@ describe("gain and closed-loop bandwidth", () => {
     const rin = out.components.find((c) => c.ref === "R1")!.value;
     const rf = out.components.find((c) => c.ref === "R2")!.value;
     expect(v("gain_ideal")).toBeCloseTo(-rf / (rin + 1000), 12);
+    // Noise gain of the inverting stage is 1 + Rf/(Rin + Rs), one more than |G| (Franco ch. 1).
+    expect(v("noise_gain")).toBeCloseTo(1 + rf / (rin + 1000), 12);
     expect(Math.abs(v("gain_snap_error"))).toBeLessThan(0.5); // % — E96 pairs land within ±0.5 %
   });
 });
