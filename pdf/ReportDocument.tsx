@@ -37,10 +37,10 @@ function RunningHeader(props: { model: ReportModel }) {
   const { model } = props;
   return (
     <View style={s.header}>
-      <Text style={{ flexGrow: 1, flexShrink: 1, paddingRight: 12, maxLines: 1, textOverflow: "ellipsis" }}>
+      <Text style={{ flexGrow: 1, flexShrink: 1, flexBasis: 0, paddingRight: 12, maxLines: 1, textOverflow: "ellipsis" }}>
         {`${model.calculation.number} rev. ${model.calculation.revision} · ${model.calculation.title}`}
       </Text>
-      <Text style={{ flexShrink: 0, color: colors.muted, maxLines: 1 }}>
+      <Text style={{ width: 200, textAlign: "right", color: colors.muted, maxLines: 1, textOverflow: "ellipsis" }}>
         {`${model.workspace.name} · ${model.project.jobNumber ? `job ${model.project.jobNumber}` : model.project.name}`}
       </Text>
     </View>
@@ -51,7 +51,7 @@ function Footer(props: { model: ReportModel; pageNumber: number; totalPages: num
   const { model } = props;
   return (
     <View style={s.footer}>
-      <Text style={{ flexGrow: 1, flexShrink: 1 }}>
+      <Text style={{ flexGrow: 1, flexShrink: 1, flexBasis: 0, maxLines: 1, textOverflow: "ellipsis" }}>
         <Text style={{ color: colors.muted }}>Verification code </Text>
         <Text style={[s.mono, { fontWeight: 500, color: colors.ink }]}>{model.verification.code}</Text>
         <Text style={{ color: colors.muted }}>{`   verify at ${urlWithoutScheme(model.verification.url)}`}</Text>

@@ -13,6 +13,7 @@ import type { Block } from "./block";
 import { colors, contentWidth, s, severityStyle, TABULAR } from "./theme";
 import { groupRows, plainRows, tableBlocks, type Column } from "./parts/table";
 import { QrCode } from "./parts/QrCode";
+import { withSubscripts } from "./parts/rich";
 import { LinePlotChart, axisTitle, lineAxisUnits, seriesStyle } from "./plots/LinePlotChart";
 import { HistogramChart, histogramAxisUnit } from "./plots/HistogramChart";
 import { LevelsChart, levelsAxisUnit } from "./plots/LevelsChart";
@@ -115,7 +116,7 @@ function cover(model: ReportModel): ReactElement {
   return (
     <View>
       <View style={{ flexDirection: "row", justifyContent: "space-between" }}>
-        <View style={{ flexGrow: 1, flexShrink: 1, paddingRight: 18 }}>
+        <View style={{ width: contentWidth - 92, paddingRight: 18 }}>
           <Text style={{ fontSize: 8, fontWeight: 600, color: colors.copper, letterSpacing: 1.2, textTransform: "uppercase" }}>{model.workspace.name}</Text>
           <Text style={[s.label, { marginTop: 12 }]}>Calculation report</Text>
           <Text style={{ fontSize: 17, fontWeight: 600, lineHeight: 1.22, marginTop: 3 }}>{c.title}</Text>
@@ -167,9 +168,9 @@ function cover(model: ReportModel): ReactElement {
 
 function inputsTable(rows: InputRow[]): Block[] {
   const columns: Column<InputRow>[] = [
-    { key: "symbol", label: "Symbol", width: 56 },
+    { key: "symbol", label: "Symbol", width: 56, rich: true },
     { key: "description", label: "Description" },
-    { key: "value", label: "Value", width: 78, align: "right" },
+    { key: "value", label: "Value", width: 88, align: "right" },
     { key: "unit", label: "Unit", width: 44 },
     { key: "source", label: "Source", width: 124, style: { color: colors.ink2, fontSize: 7.6, paddingTop: 3.1 } },
   ];
@@ -186,18 +187,18 @@ function formula(f: ReportFormula, n: number, lhsWidth: number): ReactElement {
   const sub = splitEquation(f.substituted);
   const eqLine = (lhs: string, rhs: string, strong = false) => (
     <View style={{ flexDirection: "row" }}>
-      <Text style={{ width: lhsWidth, textAlign: "right", fontSize: 9.2 }}>{lhs}</Text>
+      <Text style={{ width: lhsWidth, textAlign: "right", fontSize: 9.2 }}>{withSubscripts(lhs, 9.2)}</Text>
       <Text style={{ width: 16, textAlign: "center", fontSize: 9.2 }}>=</Text>
-      <Text style={{ flexGrow: 1, flexShrink: 1, flexBasis: 0, fontSize: 9.2, fontWeight: strong ? 600 : 400, fontFeatureSettings: TABULAR }}>{rhs}</Text>
+      <Text style={{ flexGrow: 1, flexShrink: 1, flexBasis: 0, fontSize: 9.2, fontWeight: strong ? 600 : 400, fontFeatureSettings: TABULAR }}>{withSubscripts(rhs, 9.2)}</Text>
     </View>
   );
   return (
     <View style={{ flexDirection: "row", paddingVertical: 5, borderBottomWidth: 0.4, borderBottomColor: colors.ruleLight }}>
       <Text style={{ width: 26, color: colors.copper, fontSize: 8, fontWeight: 600, paddingTop: 0.8, fontFeatureSettings: TABULAR }}>{`(${n})`}</Text>
       <View style={{ flexGrow: 1, flexShrink: 1, flexBasis: 0 }}>
-        <View style={{ flexDirection: "row", justifyContent: "space-between", marginBottom: 2 }}>
-          <Text style={{ fontSize: 8.2, fontWeight: 600, flexShrink: 1, paddingRight: 10 }}>{f.label}</Text>
-          {f.reference ? <Text style={{ fontSize: 7, color: colors.muted, maxWidth: 220, textAlign: "right", paddingTop: 1 }}>{f.reference}</Text> : null}
+        <View style={{ flexDirection: "row", marginBottom: 2 }}>
+          <Text style={{ fontSize: 8.2, fontWeight: 600, flexGrow: 1, flexShrink: 1, flexBasis: 0, paddingRight: 10 }}>{withSubscripts(f.label, 8.2)}</Text>
+          {f.reference ? <Text style={{ fontSize: 7, color: colors.muted, width: 200, textAlign: "right", paddingTop: 1 }}>{f.reference}</Text> : null}
         </View>
         {eqLine(sym.lhs || f.symbol, sym.rhs)}
         {eqLine("", sub.rhs)}
@@ -209,7 +210,7 @@ function formula(f: ReportFormula, n: number, lhsWidth: number): ReactElement {
 
 function resultsTable(rows: ReportResult[]): Block[] {
   const columns: Column<ReportResult>[] = [
-    { key: "symbol", label: "Symbol", width: 66 },
+    { key: "symbol", label: "Symbol", width: 66, rich: true },
     { key: "label", label: "Quantity" },
     { key: "valueText", label: "Value", width: 80, align: "right", style: { fontWeight: 600 } },
     { key: "unitText", label: "Unit", width: 58 },
@@ -226,6 +227,7 @@ function freeTable(table: ResultTable, spaceBefore: number): Block[] {
     label: c.label,
     width: (weights[i] / total) * contentWidth,
     align: c.align,
+    rich: true,
   }));
   return tableBlocks(`table:${table.id}`, columns, plainRows(table.rows), spaceBefore);
 }
@@ -259,13 +261,13 @@ function checksTable(checks: Check[]): Block[] {
 
 function legend(plot: LinePlot): ReactNode {
   return (
-    <View style={{ flexDirection: "row", flexWrap: "wrap", justifyContent: "flex-end", flexShrink: 1 }}>
+    <View style={{ flexDirection: "row", flexWrap: "wrap", justifyContent: "flex-end", width: contentWidth - 120 }}>
       {plot.series.map((ser, i) => {
         const st = seriesStyle(ser.role, i);
         return (
-          <View key={i} style={{ flexDirection: "row", alignItems: "center", marginLeft: 10 }}>
+          <View key={i} style={{ flexDirection: "row", alignItems: "center", marginLeft: 10, maxWidth: contentWidth - 130 }}>
             <View style={{ width: 16, height: 0, borderTopWidth: st.width, borderTopColor: st.stroke, borderStyle: st.dash ? "dashed" : "solid", marginRight: 3 }} />
-            <Text style={{ fontSize: 6.8, color: colors.ink2 }}>{ser.name}</Text>
+            <Text style={{ fontSize: 6.8, color: colors.ink2, maxWidth: contentWidth - 150 }}>{ser.name}</Text>
           </View>
         );
       })}
@@ -273,7 +275,7 @@ function legend(plot: LinePlot): ReactNode {
   );
 }
 
-const CHART_HEIGHT = { line: 156, histogram: 150, levels: 176 } as const;
+const CHART_HEIGHT = { line: 148, histogram: 140, levels: 170 } as const;
 
 /** A figure; `drawing: false` gives the same frame with an empty box of the chart's height. */
 function figure(plot: Plot, n: number, drawing: boolean): ReactElement {
@@ -304,7 +306,7 @@ function figure(plot: Plot, n: number, drawing: boolean): ReactElement {
         {plot.title}
       </Text>
       <View style={{ flexDirection: "row", justifyContent: "space-between", alignItems: "flex-end", marginBottom: 2 }}>
-        <Text style={{ fontSize: 6.8, color: colors.ink2, paddingRight: 12 }}>{yTitle}</Text>
+        <Text style={{ fontSize: 6.8, color: colors.ink2, width: 120, paddingRight: 12 }}>{yTitle}</Text>
         {legendEl}
       </View>
       {chart ?? <View style={{ height }} />}

@@ -18,6 +18,29 @@ export function fontDir(): string {
 
 let registered = false;
 
+/** Words up to this many characters are never broken. */
+const LONGEST_WHOLE_WORD = 28;
+
+/**
+ * Word-breaking rule: no hyphenation of ordinary words, symbols, part names or values
+ * ("LW-OA320", "Sallen-Key"); only a word too long for any cell (a long code or address) may be
+ * broken, in pieces of 14 characters, so it can never run out of its box. A piece never ends
+ * with "-" (react-pdf adds a hyphen where it breaks).
+ */
+export function breakOnlyLongWords(word: string): string[] {
+  if (word.length <= LONGEST_WHOLE_WORD) return [word];
+  const pieces: string[] = [];
+  let rest = word;
+  while (rest.length > 14) {
+    let cut = 14;
+    while (cut > 1 && /[-‐]/.test(rest[cut - 1])) cut--;
+    pieces.push(rest.slice(0, cut));
+    rest = rest.slice(cut);
+  }
+  pieces.push(rest);
+  return pieces;
+}
+
 /** The weights and styles registered, for loading and shaping-cache set-up. */
 const VARIANTS: Array<{ fontFamily: string; fontWeight: number; fontStyle?: "italic" }> = [
   { fontFamily: FONT_SANS, fontWeight: 400 },
@@ -98,8 +121,7 @@ export function registerReportFonts(): void {
       { src: file("IBMPlexMono_500Medium.ttf"), fontWeight: 500 },
     ],
   });
-  // Never hyphenate: symbols, part names and values must stay whole ("LW-OA320", "4.7 kΩ").
-  Font.registerHyphenationCallback((word) => [word]);
+  Font.registerHyphenationCallback(breakOnlyLongWords);
   registered = true;
 }
 

@@ -2,6 +2,7 @@
  * Small wording helpers for the report layout (labels, not quantities: quantities arrive
  * formatted in the ReportModel).
  */
+import { formatQuantity } from "../lib/calc/core/units";
 import type { ReportModel } from "../lib/reports/model";
 
 const STATUS_LABELS: Record<ReportModel["calculation"]["status"], string> = {
@@ -16,25 +17,26 @@ export function statusLabel(status: ReportModel["calculation"]["status"]): strin
   return STATUS_LABELS[status];
 }
 
-function percent(fraction: number): string {
-  const p = fraction * 100;
-  const a = Math.abs(p);
-  const digits = a >= 10 ? 0 : a >= 1 ? 1 : 2;
-  return a.toFixed(digits).replace(/(\.\d*?)0+$/, "$1").replace(/\.$/, "");
-}
-
 /** A check margin (fraction, > 0 passes) as a signed percentage: "+23 %", "−4.5 %", "—". */
 export function formatMargin(margin: number | undefined): string {
   if (margin === undefined || !Number.isFinite(margin)) return "—";
-  const body = percent(margin);
-  if (body === "0") return "0 %";
-  return `${margin < 0 ? "−" : "+"}${body} %`;
+  if (margin === 0) return "0 %";
+  const body = formatQuantity(Math.abs(margin), "%", { scale: "percent", digits: 2 });
+  return `${margin < 0 ? "−" : "+"}${body}`;
 }
 
 /** A component tolerance (fraction) as "±1 %", "±0.1 %"; "—" when none. */
 export function formatTolerance(tolerance: number | undefined): string {
   if (tolerance === undefined || !Number.isFinite(tolerance) || tolerance <= 0) return "—";
-  return `±${percent(tolerance)} %`;
+  return `±${formatQuantity(tolerance, "%", { scale: "percent", digits: 3 })}`;
+}
+
+/**
+ * True when a cell holds a number (optionally signed, with a unit or a range), so it may use
+ * tabular digits; names such as "LW-OA320" or "Sallen-Key" keep proportional spacing.
+ */
+export function looksNumeric(text: string): boolean {
+  return /^[±+−-]?\(?[\d.,]+/.test(text.trim());
 }
 
 /** "https://app.example/verify?code=…" → "app.example/verify" (for the footer). */

@@ -180,7 +180,7 @@ const resultTableSchema = z.object({
   columns: z
     .array(z.object({ key: required("column key", 40), label: text("column label", 60), align: z.enum(["left", "right"]).optional() }))
     .min(1, { message: "a table needs at least one column" }),
-  rows: z.array(z.record(z.string(), z.string())),
+  rows: z.array(z.record(z.string(), text("table cell", 300))),
 });
 
 const componentSchema = z.object({

@@ -7,7 +7,9 @@
  * This is sample data, not the filter engine: the app builds real reports from lib/calc outputs.
  */
 import type { Check, Component, FormulaRecord, Plot, ResultValue } from "../calc/core/types";
+import { formatNumber, formatQuantity } from "../calc/core/units";
 import { REPORT_MODEL_FORMAT, STANDARD_STATEMENT, type InputRow, type ReportFormula, type ReportModel, type ReportResult } from "./model";
+import { splitQuantity } from "./build-model";
 
 // --- the design -------------------------------------------------------------------------------
 
@@ -32,16 +34,12 @@ const BIAS = 2.5;
 
 // --- tiny deterministic helpers (sample data only) -------------------------------------------
 
-/** Significant figures with a true minus sign; `scale` divides first (1e3 for k, 1e-9 for n). */
-function sig(value: number, digits: number, scale = 1): string {
-  const t = Number((value / scale).toPrecision(digits)).toString();
-  return t.startsWith("-") ? `−${t.slice(1)}` : t;
-}
-/** Fixed decimals with a true minus sign. */
-function fix(value: number, decimals: number, scale = 1): string {
-  const t = (value / scale).toFixed(decimals);
-  return t.startsWith("-") ? `−${t.slice(1)}` : t;
-}
+/** The app's formatting of a quantity (engineering prefix, true minus sign). */
+const q = (value: number, unit: string, digits = 4) => formatQuantity(value, unit, { digits });
+/** A fraction as a percentage, 2 significant figures. */
+const pct = (fraction: number) => formatQuantity(fraction, "%", { scale: "percent", digits: 2 });
+/** A plain number, `digits` significant figures. */
+const n = (value: number, digits = 4) => formatNumber(value, digits);
 
 interface Cx {
   re: number;
@@ -226,7 +224,7 @@ export function sampleReportModel(overrides: Partial<ReportModel> = {}): ReportM
       substituted: "f₀₁ = 1 / (2π · 1.47 kΩ · √(12 nF · 10 nF))",
       value: f01,
       unit: "Hz",
-      resultText: `${sig(f01, 4, 1e3)} kHz`,
+      resultText: q(f01, "Hz", 4),
       reference: "Carter, Mancini, Op Amps for Everyone, 5th ed., ch. 16",
     },
     {
@@ -238,7 +236,7 @@ export function sampleReportModel(overrides: Partial<ReportModel> = {}): ReportM
       substituted: "Q₁ = ½ · √(12 nF / 10 nF)",
       value: q1,
       unit: "",
-      resultText: sig(q1, 4),
+      resultText: n(q1),
       reference: "Carter, Mancini, Op Amps for Everyone, 5th ed., ch. 16",
     },
     {
@@ -250,7 +248,7 @@ export function sampleReportModel(overrides: Partial<ReportModel> = {}): ReportM
       substituted: "f₀₂ = 1 / (2π · 2.74 kΩ · √(15 nF · 2.2 nF))",
       value: f02,
       unit: "Hz",
-      resultText: `${sig(f02, 4, 1e3)} kHz`,
+      resultText: q(f02, "Hz", 4),
       reference: "Carter, Mancini, Op Amps for Everyone, 5th ed., ch. 16",
     },
     {
@@ -262,7 +260,7 @@ export function sampleReportModel(overrides: Partial<ReportModel> = {}): ReportM
       substituted: "Q₂ = ½ · √(15 nF / 2.2 nF)",
       value: q2,
       unit: "",
-      resultText: sig(q2, 4),
+      resultText: n(q2),
       reference: "Carter, Mancini, Op Amps for Everyone, 5th ed., ch. 16",
     },
     {
@@ -271,11 +269,11 @@ export function sampleReportModel(overrides: Partial<ReportModel> = {}): ReportM
       symbol: "GBW_req",
       expression: "100 * f02 * Q2",
       symbolic: "GBW_req = 100 · f₀₂ · Q₂",
-      substituted: `GBW_req = 100 · ${sig(f02, 4, 1e3)} kHz · ${sig(q2, 4)}`,
+      substituted: `GBW_req = 100 · ${q(f02, "Hz")} · ${n(q2)}`,
       value: gbwNeed,
       unit: "Hz",
-      resultText: `${sig(gbwNeed, 4, 1e6)} MHz`,
-      reference: "common practice, no source",
+      resultText: q(gbwNeed, "Hz", 4),
+      reference: "design margin in common use",
     },
     {
       key: "fpbw",
@@ -286,7 +284,7 @@ export function sampleReportModel(overrides: Partial<ReportModel> = {}): ReportM
       substituted: "f_FP = 8 V/µs / (2π · 2.00 V)",
       value: fpbw,
       unit: "Hz",
-      resultText: `${sig(fpbw, 4, 1e3)} kHz`,
+      resultText: q(fpbw, "Hz", 4),
       reference: "Franco, Design with Operational Amplifiers, 4th ed., §6.4",
     },
     {
@@ -298,7 +296,7 @@ export function sampleReportModel(overrides: Partial<ReportModel> = {}): ReportM
       substituted: "SR_req = 2π · 10.0 kHz · 2.00 V",
       value: srNeed,
       unit: "V/s",
-      resultText: `${sig(srNeed, 4, 1e6)} V/µs`,
+      resultText: q(srNeed, "V/s", 4),
       reference: "Franco, Design with Operational Amplifiers, 4th ed., §6.4",
     },
     {
@@ -310,7 +308,7 @@ export function sampleReportModel(overrides: Partial<ReportModel> = {}): ReportM
       substituted: "Vout,max = 5.00 V − 60 mV",
       value: voutMax,
       unit: "V",
-      resultText: `${fix(voutMax, 2)} V`,
+      resultText: q(voutMax, "V", 3),
     },
     {
       key: "vos_total",
@@ -321,7 +319,7 @@ export function sampleReportModel(overrides: Partial<ReportModel> = {}): ReportM
       substituted: "Vos,out = ±(1.50 mV + 5.0 µV/°C · (85 °C − 25 °C))",
       value: vosTotal,
       unit: "V",
-      resultText: `±${fix(vosTotal, 2, 1e-3)} mV`,
+      resultText: `±${q(vosTotal, "V", 3)}`,
       reference: "Franco, Design with Operational Amplifiers, 4th ed., §5.4",
     },
     {
@@ -333,31 +331,31 @@ export function sampleReportModel(overrides: Partial<ReportModel> = {}): ReportM
       substituted: "e_n,out = 8.5 nV/√Hz · √(1.026 · 10.0 kHz)",
       value: enOut,
       unit: "V",
-      resultText: `${sig(enOut, 3, 1e-9)} nV rms`,
+      resultText: `${q(enOut, "V", 3)} rms`,
       reference: "Winder, Analog and Digital Filter Design, 2nd ed., noise bandwidth tables",
     },
   ];
   const formulas: ReportFormula[] = formulaList;
 
   const results: ReportResult[] = [
-    r("f3db_ideal", "−3 dB frequency, ideal op-amp", "f₋₃dB", fIdeal, "Hz", sig(fIdeal, 4, 1e3), "kHz", "Response"),
-    r("f3db_real", "−3 dB frequency with LW-OA320", "f₋₃dB,r", fReal, "Hz", sig(fReal, 4, 1e3), "kHz", "Response"),
-    r("f3db_err", "Cut-off error against the target", "Δf_c", fErr * 100, "%", fix(fErr * 100, 2), "%", "Response"),
-    r("a50k", "Attenuation at 50 kHz", "A(50 kHz)", at50k, "dB", fix(at50k, 1), "dB", "Response"),
-    r("f01", "Natural frequency, section 1", "f₀₁", f01, "Hz", sig(f01, 4, 1e3), "kHz", "Sections"),
-    r("q1", "Quality factor, section 1", "Q₁", q1, "", sig(q1, 4), "", "Sections"),
-    r("f02", "Natural frequency, section 2", "f₀₂", f02, "Hz", sig(f02, 4, 1e3), "kHz", "Sections"),
-    r("q2", "Quality factor, section 2", "Q₂", q2, "", sig(q2, 4), "", "Sections"),
-    r("fcl", "Closed-loop bandwidth (noise gain 1)", "f_CL", fcl, "Hz", sig(fcl, 3, 1e6), "MHz", "Dynamic limits"),
-    r("gbw_need", "Gain-bandwidth product needed", "GBW_req", gbwNeed, "Hz", sig(gbwNeed, 4, 1e6), "MHz", "Dynamic limits"),
-    r("fpbw", "Full-power bandwidth at 4.0 V p-p", "f_FP", fpbw, "Hz", sig(fpbw, 4, 1e3), "kHz", "Dynamic limits"),
-    r("sr_need", "Slew rate needed", "SR_req", srNeed, "V/s", sig(srNeed, 4, 1e6), "V/µs", "Dynamic limits"),
-    r("vout_max", "Highest output", "Vout,max", voutMax, "V", fix(voutMax, 2), "V", "Output swing"),
-    r("vout_min", "Lowest output", "Vout,min", voutMin, "V", fix(voutMin * 1e3, 0), "mV", "Output swing"),
-    r("vos_total", "Output offset, 25 °C to 85 °C", "Vos,out", vosTotal, "V", `±${fix(vosTotal, 2, 1e-3)}`, "mV", "DC error"),
-    r("en_out", "Op-amp noise at the output", "e_n,out", enOut, "V", sig(enOut, 3, 1e-9), "nV rms", "Noise"),
-    r("mc_p005", "−3 dB frequency, 0.5th percentile", "f₋₃dB,P0.5", p005, "Hz", sig(p005, 4, 1e3), "kHz", "Tolerance (Monte Carlo, 2000 runs)"),
-    r("mc_p995", "−3 dB frequency, 99.5th percentile", "f₋₃dB,P99.5", p995, "Hz", sig(p995, 4, 1e3), "kHz", "Tolerance (Monte Carlo, 2000 runs)"),
+    r("f3db_ideal", "−3 dB frequency, ideal op-amp", "f₋₃dB", fIdeal, "Hz", "Response"),
+    r("f3db_real", "−3 dB frequency with LW-OA320", "f₋₃dB,r", fReal, "Hz", "Response"),
+    r("f3db_err", "Cut-off error against the target", "Δf_c", fErr * 100, "%", "Response", 3),
+    r("a50k", "Attenuation at 50 kHz", "A(50 kHz)", at50k, "dB", "Response", 3),
+    r("f01", "Natural frequency, section 1", "f₀₁", f01, "Hz", "Sections"),
+    r("q1", "Quality factor, section 1", "Q₁", q1, "", "Sections"),
+    r("f02", "Natural frequency, section 2", "f₀₂", f02, "Hz", "Sections"),
+    r("q2", "Quality factor, section 2", "Q₂", q2, "", "Sections"),
+    r("fcl", "Closed-loop bandwidth (noise gain 1)", "f_CL", fcl, "Hz", "Dynamic limits"),
+    r("gbw_need", "Gain-bandwidth product needed", "GBW_req", gbwNeed, "Hz", "Dynamic limits"),
+    r("fpbw", "Full-power bandwidth at 4.0 V p-p", "f_FP", fpbw, "Hz", "Dynamic limits"),
+    r("sr_need", "Slew rate needed", "SR_req", srNeed, "V/s", "Dynamic limits"),
+    r("vout_max", "Highest output", "Vout,max", voutMax, "V", "Output swing", 3),
+    r("vout_min", "Lowest output", "Vout,min", voutMin, "V", "Output swing", 3),
+    r("vos_total", "Output offset, 25 °C to 85 °C (either sign)", "Vos,out", vosTotal, "V", "DC error", 3),
+    r("en_out", "Op-amp noise at the output (rms)", "e_n,out", enOut, "V", "Noise", 3),
+    r("mc_p005", "−3 dB frequency, 0.5th percentile", "f₋₃dB,P0.5", p005, "Hz", "Tolerance (Monte Carlo, 2000 runs)"),
+    r("mc_p995", "−3 dB frequency, 99.5th percentile", "f₋₃dB,P99.5", p995, "Hz", "Tolerance (Monte Carlo, 2000 runs)"),
   ];
 
   const checks: Check[] = [
@@ -365,56 +363,56 @@ export function sampleReportModel(overrides: Partial<ReportModel> = {}): ReportM
       id: "response.fc",
       severity: Math.abs(fErr) <= 0.02 ? "pass" : "fail",
       title: "Cut-off frequency within ±2 % of the target",
-      message: `The −3 dB frequency with LW-OA320 is ${sig(fReal, 4, 1e3)} kHz, ${fix(fErr * 100, 2)} % from the 10.0 kHz target (limit ±2 %).`,
+      message: `The −3 dB frequency with LW-OA320 is ${q(fReal, "Hz")}, ${n(fErr * 100, 3)} % from the 10.0 kHz target (limit ±2 %).`,
       margin: (0.02 - Math.abs(fErr)) / 0.02,
     },
     {
       id: "response.stopband",
       severity: at50k <= -40 ? "pass" : "fail",
       title: "Stop-band attenuation at 50 kHz",
-      message: `Attenuation at 50 kHz is ${fix(-at50k, 1)} dB against the 40 dB required.`,
+      message: `Attenuation at 50 kHz is ${q(-at50k, "dB", 3)} against the 40 dB required.`,
       margin: (-at50k - 40) / 40,
     },
     {
       id: "dynamic.gbw",
       severity: GBW >= gbwNeed ? "pass" : "warning",
       title: "Gain-bandwidth product",
-      message: `LW-OA320 has 10 MHz; 100 × f₀ · Q of the worst section asks for ${sig(gbwNeed, 3, 1e6)} MHz.`,
+      message: `LW-OA320 has 10 MHz; 100 × f₀ · Q of the worst section asks for ${q(gbwNeed, "Hz", 3)}.`,
       margin: (GBW - gbwNeed) / gbwNeed,
     },
     {
       id: "dynamic.slew",
       severity: SR >= 5 * srNeed ? "pass" : "warning",
       title: "Slew rate",
-      message: `8 V/µs available; ${sig(srNeed, 3, 1e6)} V/µs needed for 4.0 V p-p at 10 kHz (5× headroom kept).`,
+      message: `8 V/µs available; ${q(srNeed, "V/s", 3)} needed for 4.0 V p-p at 10 kHz (5× headroom kept).`,
       margin: (SR - 5 * srNeed) / (5 * srNeed),
     },
     {
       id: "swing.high",
       severity: "pass",
       title: "Output swing, positive rail",
-      message: `The signal peaks at ${fix(sigHigh, 2)} V; the output reaches ${fix(voutMax, 2)} V at 10 kΩ.`,
+      message: `The signal peaks at ${q(sigHigh, "V", 3)}; the output reaches ${q(voutMax, "V", 3)} at 10 kΩ.`,
       margin: (voutMax - sigHigh) / sigHigh,
     },
     {
       id: "swing.low",
       severity: "pass",
       title: "Output swing, negative rail",
-      message: `The signal falls to ${fix(sigLow, 2)} V; the output reaches down to ${fix(voutMin * 1e3, 0)} mV at 10 kΩ.`,
+      message: `The signal falls to ${q(sigLow, "V", 3)}; the output reaches down to ${q(voutMin, "V", 3)} at 10 kΩ.`,
       margin: (sigLow - voutMin) / sigLow,
     },
     {
       id: "tolerance.spread",
       severity: Math.max(-spreadLo, spreadHi) <= 0.05 ? "pass" : "warning",
       title: "Cut-off spread with component tolerances",
-      message: `99 % of builds fall between ${sig(p005, 4, 1e3)} kHz and ${sig(p995, 4, 1e3)} kHz (${fix(spreadLo * 100, 1)} % to +${fix(spreadHi * 100, 1)} %). Use ±2 % capacitors if the ±5 % band is too wide for the ADC's digital filter.`,
+      message: `99 % of builds fall between ${q(p005, "Hz")} and ${q(p995, "Hz")} (${pct(spreadLo)} to +${pct(spreadHi)}). Use ±2 % capacitors if the ±5 % band is too wide for the ADC's digital filter.`,
       margin: (0.05 - Math.max(-spreadLo, spreadHi)) / 0.05,
     },
     {
       id: "dc.offset",
       severity: vosTotal <= 1e-3 ? "pass" : "fail",
       title: "Output offset against the 1 mV budget",
-      message: `Offset reaches ±${fix(vosTotal, 2, 1e-3)} mV at 85 °C, above the ±1.00 mV budget. Choose a part with Vos below 0.7 mV, or calibrate the offset in firmware.`,
+      message: `Offset reaches ±${q(vosTotal, "V", 3)} at 85 °C, above the ±1.00 mV budget. Choose a part with Vos below 0.7 mV, or calibrate the offset in firmware.`,
       margin: (1e-3 - vosTotal) / 1e-3,
     },
   ];
@@ -496,8 +494,8 @@ export function sampleReportModel(overrides: Partial<ReportModel> = {}): ReportM
           { key: "target", label: "Target Q", align: "right" },
         ],
         rows: [
-          { section: "1 (U1A)", f0: `${sig(f01, 4, 1e3)} kHz`, q: sig(q1, 4), r: "1.47 kΩ", ca: "12 nF", cb: "10 nF", target: "0.5412" },
-          { section: "2 (U1B)", f0: `${sig(f02, 4, 1e3)} kHz`, q: sig(q2, 4), r: "2.74 kΩ", ca: "15 nF", cb: "2.2 nF", target: "1.3066" },
+          { section: "1 (U1A)", f0: q(f01, "Hz", 4), q: n(q1), r: "1.47 kΩ", ca: "12 nF", cb: "10 nF", target: "0.5412" },
+          { section: "2 (U1B)", f0: q(f02, "Hz", 4), q: n(q2), r: "2.74 kΩ", ca: "15 nF", cb: "2.2 nF", target: "1.3066" },
         ],
       },
     ],
@@ -526,7 +524,9 @@ export function sampleReportModel(overrides: Partial<ReportModel> = {}): ReportM
   return { ...model, ...overrides };
 }
 
-function r(key: string, label: string, symbol: string, value: number, unit: string, valueText: string, unitText: string, group: string): ReportResult {
+/** A result row printed as the app prints it (formatQuantity, split into number and unit). */
+function r(key: string, label: string, symbol: string, value: number, unit: string, group: string, digits = 4): ReportResult {
   const base: ResultValue = { key, label, symbol, value, unit, group };
+  const { value: valueText, unit: unitText } = splitQuantity(formatQuantity(value, unit, { digits }));
   return { ...base, valueText, unitText };
 }

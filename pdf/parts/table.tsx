@@ -6,7 +6,9 @@
 import type { ReactNode } from "react";
 import { Text, View } from "@react-pdf/renderer";
 import type { Block } from "../block";
-import { colors, s, type PdfStyle } from "../theme";
+import { colors, s, TABULAR, type PdfStyle } from "../theme";
+import { looksNumeric } from "../text";
+import { withSubscripts } from "./rich";
 
 export interface Column<T> {
   key: string;
@@ -18,6 +20,8 @@ export interface Column<T> {
   cell?: (row: T) => ReactNode;
   /** Extra style for the body cells of this column. */
   style?: PdfStyle;
+  /** Print "X_y" as X with subscript y (symbols). */
+  rich?: boolean;
 }
 
 /** A body row, or a group heading row spanning all columns. */
@@ -69,9 +73,10 @@ export function tableBlocks<T>(id: string, columns: Column<T>[], rows: TableRow<
               );
             }
             const base = c.align === "right" ? s.tdNum : s.td;
+            const digits = looksNumeric(content) ? { fontFeatureSettings: TABULAR } : {};
             return (
-              <Text key={c.key} style={[base, widthStyle(c), c.style ?? {}]}>
-                {content}
+              <Text key={c.key} style={[base, digits, widthStyle(c), c.style ?? {}]}>
+                {c.rich ? withSubscripts(content, ((c.style?.fontSize as number | undefined) ?? 8.2)) : content}
               </Text>
             );
           })}

@@ -7,6 +7,7 @@ import type { HistogramPlot } from "../../lib/calc/core/types";
 import { colors } from "../theme";
 import { axisScale, decimalsFor, fixed, linearAxis } from "./axes";
 import { PlotCanvas, estimateTextWidth, r2, type CanvasLabel } from "./canvas";
+import { formatQuantity } from "../../lib/calc/core/units";
 
 const PAD = { left: 36, right: 10, top: 14, bottom: 16 };
 const MARKER_ROW = 9;
@@ -37,7 +38,7 @@ export function HistogramChart(props: { plot: HistogramPlot; width: number; heig
     .sort((a, b) => a.value - b.value)
     .map((m) => {
       const x = mapX(m.value);
-      const text = `${m.label} ${fixed(m.value / sc.factor, dec + 1)}`;
+      const text = `${m.label} ${formatQuantity(m.value, plot.x.unit, { digits: 4 })}`;
       const w = estimateTextWidth(text, 6.4) + 4;
       let align: "left" | "center" | "right" = "center";
       let x0 = x - w / 2;

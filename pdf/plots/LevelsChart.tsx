@@ -8,9 +8,10 @@ import type { LevelsPlot } from "../../lib/calc/core/types";
 import { colors } from "../theme";
 import { axisScale, decimalsFor, fixed, linearAxis } from "./axes";
 import { PlotCanvas, r2, type CanvasLabel } from "./canvas";
+import { formatQuantity } from "../../lib/calc/core/units";
 
 const PAD = { left: 36, top: 8, bottom: 24 };
-const LABEL_COLUMN = 190;
+const LABEL_COLUMN = 170;
 const LABEL_GAP = 8.6;
 
 const LEVEL_STYLE: Record<LevelsPlot["levels"][number]["role"], { stroke: string; width: number; dash?: string }> = {
@@ -78,8 +79,8 @@ export function LevelsChart(props: { plot: LevelsPlot; width: number; height: nu
     const lead = `M${r2(right)} ${r2(o.y)}L${r2(right + 8)} ${r2(o.y)}L${r2(right + 16)} ${r2(ly)}L${r2(right + 20)} ${r2(ly)}`;
     const ink = o.l.role === "signal" ? colors.copper : colors.ink;
     const weight = o.l.role === "rail" ? 600 : 400;
-    labels.push({ x: right + 23, y: ly, text: o.l.label, align: "left", width: LABEL_COLUMN - 80, size: 6.8, color: ink, weight });
-    labels.push({ x: width - 2, y: ly, text: `${fixed(o.l.value / sc.factor, dec + 1)} ${sc.unit}`, align: "right", width: 52, size: 6.8, color: ink, weight });
+    labels.push({ x: right + 23, y: ly, text: o.l.label, align: "left", width: LABEL_COLUMN - 74, size: 6.8, color: ink, weight });
+    labels.push({ x: width - 2, y: ly, text: formatQuantity(o.l.value, plot.unit, { digits: 3 }), align: "right", width: 50, size: 6.8, color: ink, weight, numeric: true });
     return [
       <Path key={`l${o.i}`} d={`M${r2(left)} ${r2(o.y)}H${r2(right)}`} stroke={st.stroke} strokeWidth={st.width} strokeDasharray={st.dash} fill="none" />,
       <Path key={`d${o.i}`} d={lead} stroke={colors.muted} strokeWidth={0.4} fill="none" />,

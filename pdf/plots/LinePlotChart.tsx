@@ -31,15 +31,16 @@ interface Mapped {
 
 const PAD = { left: 36, right: 10, top: 6, bottom: 16 };
 
-/** Degrees get steps that suit angles (15°, 30°, 45°, 90°, 180°). */
-function angleAxis(lo: number, hi: number) {
-  const span = Math.max(hi - lo, 1);
-  const step = [15, 30, 45, 90, 180].find((s) => span / s <= 6) ?? niceStep(span, 6);
-  const min = Math.floor(lo / step + 1e-9) * step;
-  const max = Math.ceil(hi / step - 1e-9) * step;
+/** Axis on the first of `steps` giving at most 9 intervals (degrees: 15°…; decibels: 1 dB … 20 dB …). */
+function stepAxis(lo: number, hi: number, steps: number[]) {
+  const span = Math.max(hi - lo, 1e-9);
+  const step = steps.find((s) => span / s <= 9) ?? niceStep(span, 6);
+  const min = Math.floor(lo / step + 1e-3) * step;
+  let max = Math.ceil(hi / step - 1e-3) * step;
+  if (max <= min) max = min + step;
   const ticks: number[] = [];
-  for (let v = min; v <= max + step * 1e-9; v += step) ticks.push(Math.abs(v) < 1e-9 ? 0 : v);
-  return { min, max: max === min ? min + step : max, step, ticks };
+  for (let v = min; v <= max + step * 1e-6; v += step) ticks.push(Math.abs(v) < step * 1e-9 ? 0 : Number(v.toPrecision(12)));
+  return { min, max, step, ticks };
 }
 
 /** The plot drawn into a canvas `width` × `height` points (axis titles are printed outside). */
@@ -91,7 +92,9 @@ export function LinePlotChart(props: { plot: LinePlot; width: number; height: nu
       labels.push({ x: left - 4, y: mapY(m), text: decadeLabel(m, plot.y.unit), align: "right", width: 34 });
     }
   } else {
-    const ax = plot.y.unit === "°" ? angleAxis(Math.min(...ys), Math.max(...ys)) : linearAxis(Math.min(...ys), Math.max(...ys), 5);
+    const lo = Math.min(...ys);
+    const hi = Math.max(...ys);
+    const ax = plot.y.unit === "°" ? stepAxis(lo, hi, [15, 30, 45, 90, 180]) : plot.y.unit === "dB" ? stepAxis(lo, hi, [1, 2, 3, 5, 10, 20, 40, 60, 100]) : linearAxis(lo, hi, 5);
     const sc = axisScale(Math.max(...ys.map(Math.abs)), plot.y.unit);
     mapY = (v) => bottom - ((v - ax.min) / (ax.max - ax.min)) * (bottom - top);
     const dec = decimalsFor(ax.step / sc.factor);

@@ -45,8 +45,9 @@ export function linearAxis(lo: number, hi: number, target = 5): LinearAxis {
     b += pad;
   }
   const step = niceStep(b - a, target);
-  const min = Math.floor(a / step + 1e-9) * step;
-  const max = Math.ceil(b / step - 1e-9) * step;
+  // Values within 0.1 % of a step of a tick count as on it (e.g. +0.0001 dB of peaking).
+  const min = Math.floor(a / step + 1e-3) * step || 0;
+  const max = Math.ceil(b / step - 1e-3) * step || 0;
   const ticks: number[] = [];
   const n = Math.round((max - min) / step);
   for (let i = 0; i <= n; i++) {

@@ -5,6 +5,7 @@
 import type { ReactNode } from "react";
 import { Svg, Text, View } from "@react-pdf/renderer";
 import { colors, TABULAR } from "../theme";
+import { looksNumeric } from "../text";
 
 /** A text label placed on the canvas, in points from the canvas's top-left corner. */
 export interface CanvasLabel {
@@ -20,6 +21,8 @@ export interface CanvasLabel {
   width?: number;
   /** Opaque background behind the text (hides lines drawn under it). */
   background?: string;
+  /** Print with tabular digits (numbers); default: only when the text is a number. */
+  numeric?: boolean;
 }
 
 /** Width a label of `text` takes at `size` pt, estimated for Inter (average advance ≈ 0.56 em). */
@@ -56,7 +59,7 @@ export function PlotCanvas(props: { width: number; height: number; labels: Canva
               textAlign: l.align ?? "center",
               color: l.color ?? colors.ink2,
               fontWeight: l.weight ?? 400,
-              fontFeatureSettings: TABULAR,
+              ...((l.numeric ?? looksNumeric(l.text)) ? { fontFeatureSettings: TABULAR } : {}),
               ...(l.background ? { backgroundColor: l.background } : {}),
             }}
           >
