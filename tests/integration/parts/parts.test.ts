@@ -128,6 +128,15 @@ describe("parts library", () => {
     expect((await list(w)).length).toBe(1);
   });
 
+  it("lets exactly one of ten concurrent adds of the same name through; the others get 409", async () => {
+    const w = await makeWorld();
+    const results = await Promise.all(
+      Array.from({ length: 10 }, (_, i) => call(partsRoute.POST, { params: { slug: w.slug }, cookie: i % 2 ? w.engineer.cookie : w.checker.cookie, body: typedOpAmp(i % 3 ? "LW-OA777 race" : "lw-oa777 RACE") })),
+    );
+    expect(results.map((r) => r.status).sort()).toEqual([201, ...Array(9).fill(409)]);
+    expect((await list(w)).length).toBe(1);
+  });
+
   it("edits a part: partial values, rename, a clashing rename 409 and a bad value 422 change nothing", async () => {
     const w = await makeWorld();
     const a = (await call(partsRoute.POST, { params: { slug: w.slug }, cookie: w.engineer.cookie, body: typedOpAmp("LW-OA1") })).body.part as { id: string };
