@@ -543,6 +543,9 @@ export function computeFilter(kind: "lowpass" | "highpass" | "bandpass", input: 
     ...(cascade?.response === "chebyshev"
       ? ["With a ripple response the −3 dB frequency can jump to a lower value when a ripple valley sags below −3 dB under tolerance; the Monte Carlo shows this, the sensitivity corners may not."]
       : []),
+    ...(cascade
+      ? [`Passband variation is measured peak to valley on the finite-GBW response from ${kind === "lowpass" ? "f_p/1,000 to f_p" : "f_p to 20·f_p"}; stopband attenuation is taken relative to the passband gain.`]
+      : ["Stopband attenuation is taken relative to the centre gain."]),
     "Resistors outside 100 Ω … 1 MΩ and capacitors below 100 pF are flagged (common practice, no source).",
   );
   return out.build();
