@@ -26,12 +26,29 @@ const STATUS_LABEL: Record<BillingSummary["status"], string> = {
 
 const day = (ms: number | null) => (ms == null ? "—" : new Date(ms).toISOString().slice(0, 10));
 
+/** What follows the status word: the trial end, the next renewal, the grace end. */
+function statusDetail(b: BillingSummary): string {
+  switch (b.status) {
+    case "trialing":
+      return b.access.mode === "read_only" ? `ended on ${day(b.trialEndsAt)}` : `until ${day(b.trialEndsAt)}, every pack, no card needed`;
+    case "active":
+      return b.cancelAtPeriodEnd ? `cancels on ${day(b.currentPeriodEnd)}` : `renews on ${day(b.currentPeriodEnd)}`;
+    case "past_due":
+      return b.access.mode === "grace" ? `since ${day(b.pastDueSince)}; editing stays open until ${day(b.access.graceEndsAt)}` : `since ${day(b.pastDueSince)}; read-only until paid`;
+    case "canceled":
+      return "read-only; everything stays readable and downloadable";
+    default:
+      return b.statusText;
+  }
+}
+
 /** The owner's billing page: status, packs, seats, the subscribe or add-seats form, invoices. */
 export function BillingView({ slug, summary, invoices, invoicesError, notice }: { slug: string; summary: BillingSummary; invoices: InvoiceRow[]; invoicesError: string | null; notice: PageNotice | null }) {
   const [portalError, setPortalError] = useState<string>();
   const [opening, setOpening] = useState(false);
   const subscribedPacks = summary.packs.filter((p) => p.subscribed).map((p) => p.id);
-  const planName = summary.hasSubscription || summary.status === "canceled" ? plansForPacks(subscribedPacks).map((p) => p.title).join(" + ") || "No packs" : "Trial: all packs";
+  const paidPlan = plansForPacks(subscribedPacks).map((p) => p.title).join(" + ") || "No packs";
+  const planName = summary.hasSubscription ? paidPlan : summary.status === "trialing" ? "Trial: all packs" : summary.status === "canceled" ? `${paidPlan} (ended)` : "None";
 
   async function openPortal() {
     setOpening(true);
@@ -48,11 +65,7 @@ export function BillingView({ slug, summary, invoices, invoicesError, notice }: 
   return (
     <div className="space-y-6">
       {notice ? <Notice tone={notice.tone}>{notice.text}</Notice> : null}
-      {summary.access.message ? (
-        <Notice tone="info" title={summary.access.mode === "grace" ? "Payment overdue" : "Read-only"}>
-          {summary.access.message}
-        </Notice>
-      ) : null}
+      {/* Read-only and past-due states show in the workspace banner (layout.tsx), not twice here. */}
 
       <div className="grid gap-6 lg:grid-cols-[1fr_380px]">
         <Panel
@@ -75,7 +88,7 @@ export function BillingView({ slug, summary, invoices, invoicesError, notice }: 
             <dd data-testid="billing-status">
               <Tag tone={summary.status === "active" || summary.status === "trialing" ? "neutral" : "muted"}>{STATUS_LABEL[summary.status]}</Tag>
               <span className="ml-2 text-ink-2" data-testid="billing-status-text">
-                {summary.statusText}
+                {statusDetail(summary)}
               </span>
             </dd>
             <dt className="text-ink-2">Plan</dt>
@@ -90,27 +103,23 @@ export function BillingView({ slug, summary, invoices, invoicesError, notice }: 
                 <>
                   , <span className="mono">{summary.seats.pending}</span> invited
                 </>
-              ) : null}{" "}
-              of{" "}
-              <span className="mono" data-testid="seats-paid">
-                {summary.hasSubscription ? summary.seats.paid : summary.seats.limit}
-              </span>{" "}
-              {summary.hasSubscription ? "paid" : summary.status === "trialing" ? "in the trial" : ""}
+              ) : null}
+              {summary.hasSubscription ? (
+                <>
+                  {" "}
+                  of{" "}
+                  <span className="mono" data-testid="seats-paid">
+                    {summary.seats.paid}
+                  </span>{" "}
+                  paid
+                </>
+              ) : summary.status === "trialing" ? (
+                <>
+                  {" "}
+                  of <span className="mono">{summary.seats.limit}</span> in the trial
+                </>
+              ) : null}
             </dd>
-            {summary.status === "trialing" ? (
-              <>
-                <dt className="text-ink-2">Trial ends</dt>
-                <dd className="mono">{day(summary.trialEndsAt)}</dd>
-              </>
-            ) : null}
-            {summary.hasSubscription && summary.currentPeriodEnd ? (
-              <>
-                <dt className="text-ink-2">{summary.cancelAtPeriodEnd ? "Ends on" : "Next renewal"}</dt>
-                <dd className="mono" data-testid="period-end">
-                  {day(summary.currentPeriodEnd)}
-                </dd>
-              </>
-            ) : null}
             {summary.monthlyTotal != null ? (
               <>
                 <dt className="text-ink-2">Per month</dt>
