@@ -3,6 +3,7 @@
 import { amplifierTypes } from "../lib/calc/amplifier";
 import { referenceTypes } from "../lib/calc/reference";
 import { parseRawInputs } from "../lib/calc/core/inputs";
+import os from "node:os";
 import type { CalcType, RawInputs } from "../lib/calc/core/types";
 
 const TARGET_MS = 1;
@@ -26,7 +27,7 @@ function median(xs: number[]): number {
 }
 
 let misses = 0;
-console.log(`Calc engine: median compute time, ${RUNS} warm runs each (target < ${TARGET_MS} ms)`);
+console.log(`Calc engine: median compute time, ${RUNS} warm runs each (target < ${TARGET_MS} ms); load average ${os.loadavg()[0].toFixed(1)} on ${os.cpus().length} cores`);
 for (const type of [...amplifierTypes, ...referenceTypes] as CalcType[]) {
   for (const [i, patch] of (VARIANTS[type.id] ?? [{}]).entries()) {
     const parsed = parseRawInputs(type, { ...type.defaults, ...patch });
@@ -34,17 +35,20 @@ for (const type of [...amplifierTypes, ...referenceTypes] as CalcType[]) {
     const input = parsed.input;
     for (let k = 0; k < WARMUP; k++) type.compute(input);
     const times: number[] = [];
+    const cpu0 = process.cpuUsage();
     for (let k = 0; k < RUNS; k++) {
       const t0 = performance.now();
       type.compute(input);
       times.push(performance.now() - t0);
     }
+    const cpu = process.cpuUsage(cpu0);
+    const cpuMs = (cpu.user + cpu.system) / 1000 / RUNS;
     const med = median(times);
     const p95 = [...times].sort((a, b) => a - b)[Math.floor(times.length * 0.95)];
     const ok = med < TARGET_MS;
     if (!ok) misses++;
     const name = `${type.id}${i ? ` (variant ${i})` : ""}`;
-    console.log(`  ${name.padEnd(40)} median ${med.toFixed(3)} ms   p95 ${p95.toFixed(3)} ms   ${ok ? "meets target" : "MISSES target"}`);
+    console.log(`  ${name.padEnd(40)} median ${med.toFixed(3)} ms   p95 ${p95.toFixed(3)} ms   CPU ${cpuMs.toFixed(3)} ms/run   ${ok ? "meets target" : "MISSES target"}`);
   }
 }
 console.log(misses ? `${misses} case(s) miss the ${TARGET_MS} ms target.` : `All cases meet the ${TARGET_MS} ms target.`);

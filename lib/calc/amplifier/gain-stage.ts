@@ -493,10 +493,21 @@ export function computeGainStage(input: GainStageInput): CalcOutput {
   const fLow = Math.max(1e-3, Math.min(fp, input.fMax, f3) / 10);
   const freqs = logspace(fLow, fHigh, 241);
   const onePole = { ...model, f2: Infinity };
-  const seriesOf = (m: LoopModel) => freqs.map((fr) => closedLoopAt(m, fr));
-  const idealPts = freqs.map(() => ({ mag: Math.abs(gIdeal), phaseDeg: gIdeal < 0 ? 180 : 0 }));
-  const dp = seriesOf(onePole);
-  const withCl = Number.isFinite(f2) ? seriesOf(model) : null;
+  // Magnitude (dB) and phase (°) curves, filled in place (no per-point objects).
+  const curves = (m: LoopModel) => {
+    const db: number[] = new Array(freqs.length);
+    const ph: number[] = new Array(freqs.length);
+    for (let i = 0; i < freqs.length; i++) {
+      const r = closedLoopAt(m, freqs[i]);
+      db[i] = 20 * Math.log10(Math.max(r.mag, 1e-30));
+      ph[i] = r.phaseDeg;
+    }
+    return { db, ph };
+  };
+  const idealDb = new Array<number>(freqs.length).fill(20 * Math.log10(Math.abs(gIdeal)));
+  const idealPh = new Array<number>(freqs.length).fill(gIdeal < 0 ? 180 : 0);
+  const dp = curves(onePole);
+  const withCl = Number.isFinite(f2) ? curves(model) : null;
   const toDb = (v: number) => 20 * Math.log10(Math.max(v, 1e-30));
   b.plots.push(
     {
@@ -506,9 +517,9 @@ export function computeGainStage(input: GainStageInput): CalcOutput {
       x: { label: "Frequency", unit: "Hz", scale: "log" },
       y: { label: "Gain", unit: "dB", scale: "linear" },
       series: [
-        { name: "Ideal op-amp", role: "ideal", x: freqs, y: idealPts.map((v) => toDb(v.mag)) },
-        { name: "Dominant-pole model (GBW, A₀)", role: "real", x: freqs, y: dp.map((v) => toDb(v.mag)) },
-        ...(withCl ? [{ name: `With CL = ${q(input.cLoad, "F")}`, role: "other" as const, x: freqs, y: withCl.map((v) => toDb(v.mag)) }] : []),
+        { name: "Ideal op-amp", role: "ideal", x: freqs, y: idealDb },
+        { name: "Dominant-pole model (GBW, A₀)", role: "real", x: freqs, y: dp.db },
+        ...(withCl ? [{ name: `With CL = ${q(input.cLoad, "F")}`, role: "other" as const, x: freqs, y: withCl.db }] : []),
         { name: "fmax", role: "limit", x: [input.fMax, input.fMax], y: [toDb(Math.abs(gIdeal)) - 40, toDb(Math.abs(gIdeal)) + 10] },
       ],
     },
@@ -519,9 +530,9 @@ export function computeGainStage(input: GainStageInput): CalcOutput {
       x: { label: "Frequency", unit: "Hz", scale: "log" },
       y: { label: "Phase", unit: "°", scale: "linear" },
       series: [
-        { name: "Ideal op-amp", role: "ideal", x: freqs, y: idealPts.map((v) => v.phaseDeg) },
-        { name: "Dominant-pole model (GBW, A₀)", role: "real", x: freqs, y: dp.map((v) => v.phaseDeg) },
-        ...(withCl ? [{ name: `With CL = ${q(input.cLoad, "F")}`, role: "other" as const, x: freqs, y: withCl.map((v) => v.phaseDeg) }] : []),
+        { name: "Ideal op-amp", role: "ideal", x: freqs, y: idealPh },
+        { name: "Dominant-pole model (GBW, A₀)", role: "real", x: freqs, y: dp.ph },
+        ...(withCl ? [{ name: `With CL = ${q(input.cLoad, "F")}`, role: "other" as const, x: freqs, y: withCl.ph }] : []),
       ],
     },
     {

@@ -128,8 +128,28 @@ function toQuantity(v: FormulaVar): Quantity {
   return typeof v === "number" ? { value: v, unit: "" } : v;
 }
 
+/**
+ * Formatted text of each variable, per digits: a variable is printed in many formulas. The entry
+ * remembers what it was made from, so a Quantity object changed by its owner is re-formatted.
+ */
+const formatted = new WeakMap<Quantity, Map<number, { value: number; unit: string; scale?: string; text: string }>>();
+
+function formatOnce(q: Quantity, digits: number): string {
+  const d = q.digits ?? digits;
+  let m = formatted.get(q);
+  if (!m) {
+    m = new Map();
+    formatted.set(q, m);
+  }
+  const hit = m.get(d);
+  if (hit && hit.value === q.value && hit.unit === q.unit && hit.scale === q.scale) return hit.text;
+  const text = formatQuantity(q.value, q.unit, { digits: d, scale: q.scale });
+  m.set(d, { value: q.value, unit: q.unit, scale: q.scale, text });
+  return text;
+}
+
 function formatVar(q: Quantity, digits: number, strong: boolean): string {
-  const s = formatQuantity(q.value, q.unit, { digits: q.digits ?? digits, scale: q.scale });
+  const s = formatOnce(q, digits);
   const negative = q.value < 0;
   const hasUnit = q.unit !== "" || q.scale !== undefined;
   return negative || (strong && hasUnit) ? `(${s})` : s;
@@ -226,7 +246,7 @@ export class FormulaSheet {
         const name = strong || bare ? parts[i].slice(1) : parts[i];
         const q = used[name];
         symbolic += q.symbol ?? name;
-        substituted += bare ? formatQuantity(q.value, q.unit, { digits: q.digits ?? digits, scale: q.scale }) : formatVar(q, digits, strong);
+        substituted += bare ? formatOnce(q, digits) : formatVar(q, digits, strong);
       }
     }
     const finite = Number.isFinite(value);

@@ -82,6 +82,7 @@ function cleanPlot(p: Plot): Plot {
     return {
       ...p,
       series: p.series.map((s) => {
+        if (s.x.length === s.y.length && s.x.every(Number.isFinite) && s.y.every(Number.isFinite)) return s;
         const x: number[] = [];
         const y: number[] = [];
         for (let i = 0; i < s.x.length; i++) {
