@@ -12,6 +12,7 @@
  * - band-pass centre: the phase at the engine's f₀ is ±180° within 1e-4 rad (the phase slope is
  *   2Q/f₀, so this pins f₀ to about 1e-5/Q relative), and the gain there equals the engine's centre
  *   gain within 1e-5.
+ * - each calculation type's own netlist() of its defaults reproduces its compute() result (1e-4).
  * If ngspice is missing the suite FAILS (beforeAll throws with an install hint); it never skips.
  */
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
@@ -20,7 +21,11 @@ import { designFilter, type FilterDesign, type FilterSpec } from "@/lib/calc/fil
 import { seriesPicker } from "@/lib/calc/filter/compute";
 import type { OpAmpModel } from "@/lib/calc/filter/mna";
 import { magnitudeFunction, minus3dBFrequency, minus3dBFrequencyWithModel } from "@/lib/calc/filter/response";
-import { crossingFrequency, mapLimit, requireNgspice } from "@/lib/calc/spice/ngspice";
+import { crossingFrequency, mapLimit, parseWrdata, requireNgspice, runNgspice } from "@/lib/calc/spice/ngspice";
+import { parseRawInputs } from "@/lib/calc/core/inputs";
+import type { CalcType } from "@/lib/calc/core/types";
+import type { z } from "zod";
+import { bandpassType, highpassType, lowpassType } from "@/lib/calc/filter";
 import { makeRunDir, ngspiceAc, NGSPICE_CONCURRENCY, type AcData } from "./helpers";
 
 const picker = seriesPicker("E12", "E96");
@@ -141,4 +146,33 @@ describe("ngspice presence", () => {
       else process.env.NGSPICE = old;
     }
   });
+});
+
+/** Run a type's own netlist() of its defaults in ngspice and compare with its compute(). */
+async function checkTypeNetlist<S extends z.ZodType>(t: CalcType<S>, name: string): Promise<void> {
+  const p = parseRawInputs(t, t.defaults);
+  if (!p.ok) throw new Error("defaults do not parse");
+  const out = t.compute(p.input);
+  const fIdeal = out.results.find((r) => r.key === "f_ideal")!.value;
+  const control = [".control", "set wr_singlescale", "set wr_vecnames", `ac dec 2000 ${fIdeal / 2} ${fIdeal * 2}`, `wrdata ${name}-s.txt vm(out)`, `ac lin 1 ${fIdeal} ${fIdeal}`, `wrdata ${name}-p.txt vm(out) vp(out)`, "quit", ".endc"];
+  const net = t.netlist!(p.input, "ideal").replace(/\.end\n$/, `${control.join("\n")}\n.end\n`);
+  const r = await runNgspice(net, dir, name, [`${name}-s.txt`, `${name}-p.txt`]);
+  const [sw] = parseWrdata(r.outputs[`${name}-s.txt`]);
+  const [pt] = parseWrdata(r.outputs[`${name}-p.txt`]);
+  if (t.id === "filter.bandpass") {
+    // centre frequency: the inverting band-pass is real (phase ±180°) exactly at f₀
+    expect(Math.abs(Math.abs(pt.columns["vp(out)"][0]) - Math.PI)).toBeLessThan(1e-4);
+  } else {
+    const gain = Math.abs(out.results.find((x) => x.key === "gain_ideal")!.value);
+    const f3 = crossingFrequency(sw.columns["frequency"], sw.columns["vm(out)"], gain * Math.SQRT1_2, t.id === "filter.lowpass");
+    expect(Math.abs(f3 / fIdeal - 1), `${t.id}: ngspice ${f3} Hz vs compute ${fIdeal} Hz`).toBeLessThan(1e-4);
+  }
+}
+
+describe("calculation types: netlist() in ngspice reproduces compute()", () => {
+  it("the defaults of filter.lowpass, filter.highpass and filter.bandpass", async () => {
+    await checkTypeNetlist(lowpassType, "type-lp");
+    await checkTypeNetlist(highpassType, "type-hp");
+    await checkTypeNetlist(bandpassType, "type-bp");
+  }, 120_000);
 });
