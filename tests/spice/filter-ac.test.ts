@@ -10,7 +10,7 @@
  *   second order in the spacing (< 1e-6); wrdata prints 9 significant figures.
  * - magnitude at every frequency and peak gain: 1e-5 relative (9-figure output, solver round-off).
  * - band-pass centre: the phase at the engine's f₀ is ±180° within 1e-4 rad (the phase slope is
- *   2Q/f₀, so this pins f₀ to about 1e-5/Q relative), and the gain there equals the engine's centre
+ *   2Q per unit of relative frequency, so this pins f₀ to 5e-5/Q relative), and the gain there equals the engine's centre
  *   gain within 1e-5.
  * - each calculation type's own netlist() of its defaults reproduces its compute() result (1e-4).
  * If ngspice is missing the suite FAILS (beforeAll throws with an install hint); it never skips.
