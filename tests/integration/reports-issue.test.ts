@@ -19,7 +19,7 @@ import { outbox } from "@/lib/mail";
 import { issueReport } from "@/lib/reports/issue";
 import { authorize } from "@/lib/auth/guard";
 import { call, draftCalculation, makeWorld, setupDb, type World } from "./helpers";
-import { approve, approveAndIssue, bodyText, calcVersion, download, fold, issueAs, pdfsig, pdftotext, pdftotextLayout, transitionAs } from "./reports-support";
+import { approve, approveAndIssue, assertInvariant, bodyText, calcVersion, download, fold, issueAs, pdfsig, pdftotext, pdftotextLayout, transitionAs } from "./reports-support";
 import * as reportsRoute from "@/app/api/w/[slug]/reports/route";
 import { newId } from "@/lib/ids";
 import { users } from "@/db/schema";
@@ -57,24 +57,6 @@ async function addCalc(w: World, typeId: string, number: string): Promise<string
 
 /** Text with all whitespace removed: pdftotext breaks lines inside table cells and long formulas. */
 const squash = (s: string) => s.replace(/\s+/g, "");
-
-/** The invariant on the whole database: issued ⇔ a stored, intact report for that revision. */
-async function assertInvariant(): Promise<void> {
-  const db = await read();
-  const calcs = await db.select().from(calculations);
-  const reps = await db.select().from(reports);
-  for (const c of calcs) {
-    const mine = reps.filter((r) => r.calculationId === c.id && r.revision === c.revision);
-    if (c.status === "issued") expect(mine.length, `${c.number} is issued but has ${mine.length} reports for rev ${c.revision}`).toBe(1);
-  }
-  for (const r of reps) {
-    expect(createHash("sha256").update(r.pdf).digest("hex")).toBe(r.sha256);
-    const c = calcs.find((x) => x.id === r.calculationId);
-    expect(c, "report of a missing calculation").toBeDefined();
-    // A report of the current revision means the calculation is issued; older revisions were issued before.
-    if (c && c.revision === r.revision) expect(c.status, `report ${r.code} exists but ${c.number} rev ${c.revision} is ${c.status}`).toBe("issued");
-  }
-}
 
 describe("issuing an approved calculation", () => {
   it("stores the signed PDF, marks the calculation issued, and records history, audit and the signing identity", async () => {

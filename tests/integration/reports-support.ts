@@ -10,7 +10,8 @@ import path from "node:path";
 import { eq } from "drizzle-orm";
 import { expect } from "vitest";
 import { read, write } from "@/db/write";
-import { calculations } from "@/db/schema";
+import { calculations, reports } from "@/db/schema";
+import { createHash } from "node:crypto";
 import { call, type TestUser, type World } from "./helpers";
 import * as transitionsRoute from "@/app/api/w/[slug]/calculations/[calcId]/transitions/route";
 import * as issueRoute from "@/app/api/w/[slug]/calculations/[calcId]/issue/route";
@@ -145,4 +146,26 @@ export function fold(text: string): string {
 /** Set a calculation's row fields directly (test set-up only). */
 export async function patchCalc(calcId: string, set: Partial<typeof calculations.$inferInsert>): Promise<void> {
   await write((db) => db.update(calculations).set(set).where(eq(calculations.id, calcId)));
+}
+
+/**
+ * The issuing invariant over the whole database: a calculation marked issued has exactly one
+ * stored report for its revision, every stored report's bytes hash to its sha256, and a report of
+ * a calculation's current revision means that revision is issued.
+ */
+export async function assertInvariant(): Promise<void> {
+  const db = await read();
+  const calcs = await db.select().from(calculations);
+  const reps = await db.select().from(reports);
+  for (const c of calcs) {
+    const mine = reps.filter((r) => r.calculationId === c.id && r.revision === c.revision);
+    if (c.status === "issued") expect(mine.length, `${c.number} is issued but has ${mine.length} reports for rev ${c.revision}`).toBe(1);
+  }
+  for (const r of reps) {
+    expect(createHash("sha256").update(r.pdf).digest("hex"), `stored bytes of ${r.code}`).toBe(r.sha256);
+    expect(Buffer.from(r.pdf).subarray(0, 5).toString("latin1")).toBe("%PDF-");
+    const c = calcs.find((x) => x.id === r.calculationId);
+    expect(c, "report of a missing calculation").toBeDefined();
+    if (c && c.revision === r.revision) expect(c.status, `report ${r.code} exists but ${c.number} rev ${c.revision} is ${c.status}`).toBe("issued");
+  }
 }
