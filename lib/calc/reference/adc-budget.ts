@@ -25,7 +25,7 @@ import { numberBetween, positiveAtMost, yesNo } from "../core/schema";
 import { demoReference, toRawPart } from "../core/demo-parts";
 
 const REF = {
-  box: "Horowitz & Hill, The Art of Electronics, 3rd ed., ch. 9 (tempco, box method: TC = ΔV / (Vnom·ΔT))",
+  box: "Horowitz & Hill, The Art of Electronics, 3rd ed., ch. 9 (tempco, box method: TC = ΔV / (Vnom·ΔT)); the box spans 25 °C, where the initial accuracy is stated",
   lt: "common practice, no source (long-term drift grows as √(t / 1000 h))",
   lsb: "definition: 1 LSB = FS / 2^N; a reference error ΔV moves full scale by (ΔV/Vref)·2^N LSB",
   sum: "common practice, no source (worst-case sum and RSS of independent terms)",
@@ -98,6 +98,7 @@ export function computeAdcBudget(input: AdcBudgetInput): CalcOutput {
     k: { value: input.fsRatio, unit: "V/V", symbol: "FS/Vref" },
     Tmin: { value: input.tMin, unit: "°C", symbol: "Tmin" },
     Tmax: { value: input.tMax, unit: "°C", symbol: "Tmax" },
+    T25: { value: 25, unit: "°C", symbol: "25 °C" },
     t: { value: input.hours, unit: "h", symbol: "t" },
   });
   const f = b.sheet;
@@ -107,7 +108,10 @@ export function computeAdcBudget(input: AdcBudgetInput): CalcOutput {
 
   const E = "Error terms (at the reference)";
   b.formula({ key: "e_init", label: "Initial accuracy", symbol: "ΔVinit", expr: "Vref * acc", unit: "V" }, {}, E);
-  b.formula({ key: "e_temp", label: "Drift over temperature (box method)", symbol: "ΔVT", expr: "Vref * TC * (Tmax - Tmin)", unit: "V", reference: REF.box }, {}, E);
+  // The initial accuracy is the error at 25 °C, so the drift that adds to it is V(T) − V(25 °C):
+  // the box must contain 25 °C even when the operating range does not.
+  const span = b.formula({ key: "dT_span", label: "Temperature span of the box (operating range and 25 °C)", symbol: "ΔT", expr: "max(Tmax, T25) - min(Tmin, T25)", unit: "°C", reference: REF.box }, {}, E);
+  b.formula({ key: "e_temp", label: "Drift over temperature (box method)", symbol: "ΔVT", expr: "Vref * TC * dT_span", unit: "V", reference: REF.box }, {}, E);
   b.formula({ key: "e_long", label: "Long-term drift over the operating time", symbol: "ΔVLT", expr: "Vref * LTD * sqrt(t / 1000)", unit: "V", reference: REF.lt }, {}, E);
   b.formula({ key: "e_noise", label: "Noise 0.1–10 Hz (peak-to-peak)", symbol: "ΔVn", expr: "Vn", unit: "V" }, {}, E);
   b.formula({ key: "e_load", label: "Load regulation (Zd·ΔIL)", symbol: "ΔVload", expr: "Zd * dI", unit: "V" }, {}, E);
@@ -123,7 +127,7 @@ export function computeAdcBudget(input: AdcBudgetInput): CalcOutput {
 
   const terms = [
     { key: "e_init", label: input.calibrated ? "Initial accuracy (calibrated out)" : "Initial accuracy" },
-    { key: "e_temp", label: `Temperature drift, ${q(input.tMin, "°C")} to ${q(input.tMax, "°C")}` },
+    { key: "e_temp", label: `Temperature drift, ${q(input.tMin, "°C")} to ${q(input.tMax, "°C")}${span > input.tMax - input.tMin + 1e-9 ? ` (box extended to 25 °C: ${q(span, "°C")})` : ""}` },
     { key: "e_long", label: `Long-term drift, ${formatNumber(input.hours)} h` },
     { key: "e_noise", label: "Noise 0.1–10 Hz p-p" },
     { key: "e_load", label: `Load regulation, ΔIL ${q(input.loadStep, "A")}` },
@@ -161,7 +165,7 @@ export function computeAdcBudget(input: AdcBudgetInput): CalcOutput {
   );
   b.assumptions.push(
     "The reference error is taken as a converter gain error; it is stated at full scale, where it is largest.",
-    "Temperature drift is bounded by the full box height TC·(Tmax − Tmin) (box method, conservative).",
+    "Temperature drift is bounded by the full box height TC·ΔT (box method, conservative), where ΔT spans the operating range and 25 °C, the temperature of the initial accuracy (and of a calibration, if one is made); the part's TC is taken to hold over that span.",
     "Long-term drift is scaled from the stated 1000 h figure by √(t / 1000 h) (common practice, no source).",
     "Noise enters as its 0.1–10 Hz peak-to-peak value, in both sums (conservative); wide-band noise above 10 Hz is not included.",
     ...(input.calibrated ? ["The initial accuracy is removed by a one-time calibration; drift after calibration remains."] : []),
@@ -176,7 +180,7 @@ export const adcReferenceBudget: CalcType<typeof adcBudgetSchema> = {
   pack: "reference",
   title: "ADC reference error budget",
   summary: "Adds the reference's initial accuracy, temperature and long-term drift, noise and load regulation into a total error in mV, ppm and LSB.",
-  version: "1.0.0",
+  version: "1.0.1",
   schema: adcBudgetSchema,
   fields,
   defaults,

@@ -29,7 +29,7 @@ const REF = {
   vout: "Horowitz & Hill, The Art of Electronics, 3rd ed., ch. 9 (adjustable shunt reference, Vout = Vref·(1 + R1/R2) + Iref·R1)",
   wc: "common practice, no source (worst case: every error at its limit in the same direction)",
   rss: "common practice, no source (root-sum-square of independent error terms)",
-  box: "box method: TC = (Vmax − Vmin) / (Vnom·(Tmax − Tmin)); the full box height is taken as the drift bound",
+  box: "Horowitz & Hill, The Art of Electronics, 3rd ed., ch. 9 (box method: TC = (Vmax − Vmin) / (Vnom·ΔT)); the full box height is the drift bound, and the box spans 25 °C, where the initial accuracy is stated",
 };
 
 /** Input schema of the adjustable reference divider, SI base units. */
@@ -97,6 +97,7 @@ export function computeAdjustable(input: AdjustableInput): CalcOutput {
     tol: { value: tol, unit: "%", symbol: "tol", scale: "percent" },
     Tmin: { value: input.tMin, unit: "°C", symbol: "Tmin" },
     Tmax: { value: input.tMax, unit: "°C", symbol: "Tmax" },
+    T25: { value: 25, unit: "°C", symbol: "25 °C" },
     IK: { value: input.iCathode, unit: "A", symbol: "IK" },
   });
   const f = b.sheet;
@@ -136,7 +137,9 @@ export function computeAdjustable(input: AdjustableInput): CalcOutput {
   b.formula({ key: "i_divider", label: "Divider current", symbol: "Idiv", expr: "Vref / R2", unit: "A" }, {}, D);
 
   const E = "Error budget";
-  b.formula({ key: "dT_span", label: "Temperature span", symbol: "ΔT", expr: "Tmax - Tmin", unit: "°C" }, {}, E);
+  // The initial accuracy is the error at 25 °C, so the drift that adds to it is V(T) − V(25 °C):
+  // the box must contain 25 °C even when the operating range does not.
+  b.formula({ key: "dT_span", label: "Temperature span of the box (operating range and 25 °C)", symbol: "ΔT", expr: "max(Tmax, T25) - min(Tmin, T25)", unit: "°C", reference: REF.box }, {}, E);
   b.formula({ key: "drift", label: "Reference drift over the span (box method)", symbol: "εT", expr: "TC * dT_span", unit: "%", scale: "percent", reference: REF.box }, {}, E);
   const vMax = b.formula({ key: "vout_max", label: "Output voltage, worst case high", symbol: "Vout,max", expr: "Vref * (1 + acc) * (1 + drift) * (1 + R1 * (1 + tol) / (R2 * (1 - tol))) + Iadj * R1 * (1 + tol)", unit: "V", reference: REF.wc }, {}, E);
   const vMin = b.formula({ key: "vout_min", label: "Output voltage, worst case low", symbol: "Vout,min", expr: "Vref * (1 - acc) * (1 - drift) * (1 + R1 * (1 - tol) / (R2 * (1 + tol)))", unit: "V", reference: REF.wc }, {}, E);
@@ -197,7 +200,7 @@ export function computeAdjustable(input: AdjustableInput): CalcOutput {
   );
   b.assumptions.push(
     "The adjust-pin current lies between 0 and the stated value; the design uses half of it, so its spread is ± half (stated value taken as a maximum).",
-    "Reference drift is bounded by the full box height TC·(Tmax − Tmin) (box method, conservative); resistor temperature coefficients are not included.",
+    "Reference drift is bounded by the full box height TC·ΔT (box method, conservative), where ΔT spans the operating range and 25 °C, the temperature of the initial accuracy; the part's TC is taken to hold over that span. Resistor temperature coefficients are not included.",
     "The reference's change with cathode current (dynamic impedance) and its long-term drift are not included; see the ADC reference budget.",
   );
   return b.build();
@@ -209,7 +212,7 @@ export const adjustableReference: CalcType<typeof adjustableSchema> = {
   pack: "reference",
   title: "Adjustable reference divider",
   summary: "Chooses the preferred-value divider of an adjustable shunt reference and states its output error, worst case and RSS.",
-  version: "1.0.0",
+  version: "1.0.1",
   schema: adjustableSchema,
   fields,
   defaults,

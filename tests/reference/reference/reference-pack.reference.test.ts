@@ -79,7 +79,8 @@ describe("reference.adjustable", () => {
     const r = inp.reference;
     const r1 = v("r1");
     const r2 = v("r2");
-    const drift = r.tempco * (inp.tMax - inp.tMin);
+    // Box height over the operating range and 25 °C (box method; the initial accuracy is at 25 °C).
+    const drift = r.tempco * (Math.max(inp.tMax, 25) - Math.min(inp.tMin, 25));
     let hi = -Infinity;
     let lo = Infinity;
     // 2^5 corners: Vref accuracy, drift, R1, R2, Iadj ∈ {0, max}.
@@ -98,6 +99,20 @@ describe("reference.adjustable", () => {
     expect(v("error_wc")).toBeCloseTo(Math.max(hi / 5 - 1, 1 - lo / 5) * 100, 9);
     // RSS is never above the worst case (common practice, no source).
     expect(v("error_rss")).toBeLessThanOrEqual(v("error_wc"));
+  });
+
+  it("box-method drift spans 25 °C when the operating range does not (hand calculation, shown here)", () => {
+    // LW-AR124: TC 50 ppm/°C. At 50…85 °C the box must reach down to 25 °C, where the initial
+    // accuracy is stated: ΔT = 60 °C → 50 ppm/°C × 60 °C = 0.3 % (not 35 °C → 0.175 %).
+    const { v } = run(ADJ, { tMin: "50", tMax: "85" });
+    expect(v("dT_span")).toBe(60);
+    expect(v("drift")).toBeCloseTo(0.3, 12); // %
+    // Worst case high with every term at its limit, hand-evaluated from the same corner:
+    // Vref·(1 + 0.5 %)·(1 + 0.3 %)·(1 + R1·1.001/(R2·0.999)) + Iadj·R1·1.001.
+    const r1 = v("r1");
+    const r2 = v("r2");
+    const hi = 1.24 * 1.005 * 1.003 * (1 + (r1 * 1.001) / (r2 * 0.999)) + 0.3e-6 * r1 * 1.001;
+    expect(rel(v("vout_max"), hi)).toBeLessThan(1e-12);
   });
 
   it("unachievable: a target below Vref, and an error limit tighter than the reference allows", () => {
@@ -137,6 +152,24 @@ describe("reference.adc-budget", () => {
 
   it("calibration removes the initial term", () => {
     expect(run(ADC, { calibrated: true }).v("e_init")).toBe(0);
+  });
+
+  it("box-method drift: the box spans 25 °C, where the initial accuracy is stated (hand calculation, shown here)", () => {
+    // Box method (Horowitz & Hill 3rd ed., ch. 9): over a temperature box the reference stays
+    // within Vnom·TC·ΔT. The initial accuracy is the error at 25 °C, so the drift that adds to it
+    // is V(T) − V(25 °C); a box that does not contain 25 °C bounds nothing about that difference.
+    // The box must therefore span the operating range and 25 °C:
+    //   50…85 °C:   ΔT = 85 − 25 = 60 °C → 4.096 V × 3 ppm/°C × 60 °C = 737.28 µV (not 35 °C → 430 µV)
+    //   −55…−10 °C: ΔT = 25 − (−55) = 80 °C → 983.04 µV
+    //   0…70 °C (crosses 25 °C): ΔT = 70 °C → 860.16 µV, the plain operating span.
+    // Exact products of decimals, so 1e-12 relative.
+    const hot = run(ADC, { tMin: "50", tMax: "85" });
+    expect(rel(hot.v("e_temp"), 4.096 * 3e-6 * 60)).toBeLessThan(1e-12);
+    expect(rel(run(ADC, { tMin: "-55", tMax: "-10" }).v("e_temp"), 4.096 * 3e-6 * 80)).toBeLessThan(1e-12);
+    expect(rel(run(ADC, { tMin: "0", tMax: "70" }).v("e_temp"), 4.096 * 3e-6 * 70)).toBeLessThan(1e-12);
+    // A range that is a single temperature away from 25 °C still drifts from the 25 °C value.
+    expect(rel(run(ADC, { tMin: "60", tMax: "60" }).v("e_temp"), 4.096 * 3e-6 * 35)).toBeLessThan(1e-12);
+    expectWellFormed(hot.out);
   });
 
   it("unachievable: 24 bits from a 0.05 % reference fails, naming the dominant term", () => {

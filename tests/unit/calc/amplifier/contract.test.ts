@@ -12,6 +12,16 @@ import { expectWellFormed } from "../core/arbitraries";
 
 const types = [...amplifierTypes, ...referenceTypes];
 
+/** Engine version of each type; bump here together with the type's `version`. */
+const VERSIONS: Record<string, string> = {
+  "amplifier.gain-stage": "1.0.0",
+  "amplifier.difference": "1.0.0",
+  "amplifier.power-stage": "1.0.0",
+  "reference.shunt": "1.0.0",
+  "reference.adjustable": "1.0.1",
+  "reference.adc-budget": "1.0.1",
+};
+
 describe("calculation type contract", () => {
   it("the packs register the six types", () => {
     expect(amplifierTypes.map((t) => t.id)).toEqual(["amplifier.gain-stage", "amplifier.difference", "amplifier.power-stage"]);
@@ -23,7 +33,8 @@ describe("calculation type contract", () => {
     describe(t.id, () => {
       it("has its metadata", () => {
         expect(t.id.startsWith(`${t.pack}.`)).toBe(true);
-        expect(t.version).toBe("1.0.0");
+        // Pinned so that a change of formula or check is a deliberate version bump (types.ts).
+        expect(t.version).toBe(VERSIONS[t.id]);
         expect(t.title.length).toBeGreaterThan(5);
         expect(t.summary.endsWith(".")).toBe(true);
       });
