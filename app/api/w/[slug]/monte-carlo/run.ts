@@ -160,7 +160,8 @@ export function monteCarloStream(job: MonteCarloJob, signal: AbortSignal): Respo
   return new Response(stream, {
     headers: {
       "content-type": "application/x-ndjson; charset=utf-8",
-      "cache-control": "no-store",
+      // no-transform: the server's gzip would otherwise hold the progress lines back until the end.
+      "cache-control": "no-store, no-transform",
       "x-content-type-options": "nosniff",
       // Ask proxies not to buffer, so progress lines arrive as they are written.
       "x-accel-buffering": "no",
