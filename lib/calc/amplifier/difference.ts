@@ -188,7 +188,16 @@ export function computeDifference(input: DifferenceInput): CalcOutput {
   b.check(
     checkAtLeast("cmrr", "Common-mode rejection", cmrrDb, input.cmrrMinDb, {
       pass: () => `Worst-case CMRR ${q(cmrrDb, "dB")} (${tolNote}, op-amp ${q(input.cmrrOpampDb, "dB")}) meets the required ${q(input.cmrrMinDb, "dB")}.`,
-      fail: () => `Worst-case CMRR ${q(cmrrDb, "dB")} (${tolNote}, op-amp ${q(input.cmrrOpampDb, "dB")}) is below the required ${q(input.cmrrMinDb, "dB")}; use tighter or matched resistors (a matched network), more gain in this stage, or trim R4.`,
+      fail: () => {
+        const head = `Worst-case CMRR ${q(cmrrDb, "dB")} (${tolNote}, op-amp ${q(input.cmrrOpampDb, "dB")}) is below the required ${q(input.cmrrMinDb, "dB")}`;
+        if (input.cmrrOpampDb <= input.cmrrMinDb) {
+          return `${head}; the op-amp's own CMRR already falls short, so no resistor matching can meet it: choose a part with CMRR well above ${q(input.cmrrMinDb, "dB")} (the resistors then need matching too) or relax the requirement.`;
+        }
+        // Resistor CMRR needed beside the op-amp's, then the tolerance from (1 + Gd)/(4p).
+        const need = 1 / (10 ** (-input.cmrrMinDb / 20) - 10 ** (-input.cmrrOpampDb / 20));
+        const pNeed = (1 + gd) / (4 * need);
+        return `${head}; the resistors must give CMRR_r ≥ ${q(20 * Math.log10(need), "dB")}, which needs a tolerance (or matching) of about ${q(pNeed, "%", { scale: "percent" })} at this gain (now ${q(tol, "%", { scale: "percent" })}): use a matched resistor network, put more of the gain in this stage, or trim R4.`;
+      },
     }),
   );
 
@@ -213,8 +222,25 @@ export function computeDifference(input: DifferenceInput): CalcOutput {
   // ---- Output, supply, dynamics -------------------------------------------------------------
   const O = "Output and load";
   f.define({ Vpk: { value: gd * input.vdPeak, unit: "V", symbol: "Gd·Vd,pk" } });
-  b.formula({ key: "r_load_total", label: "Total load on the output (RL ‖ (R1 + R2))", symbol: "RL,tot", expr: "RL * (R1 + R2) / (RL + R1 + R2)", unit: "Ω" }, {}, O);
-  const { vOmax, vOmin } = outputSwingSection(b, { part: p, vPos, vNeg, vRef: input.vRef, vPeak: gd * input.vdPeak, advice: ", move Vref", group: O });
+  // Output current: load plus the current through R2. With v1, v2 and vout taken from Vref, the
+  // − input sits at Gd·v2/(1 + Gd), so I(R2) = (vd·(Gd + ½) − vcm)/(R1 + R2) for v2,1 = vcm ± vd/2
+  // (hand derivation from the bridge; checked against ngspice in tests/spice). The common-mode
+  // part flows even with no signal; the worst case adds both magnitudes.
+  const { vOmax, vOmin } = outputSwingSection(b, {
+    part: p,
+    vPos,
+    vNeg,
+    vRef: input.vRef,
+    vPeak: gd * input.vdPeak,
+    advice: ", move Vref",
+    group: O,
+    peakCurrent: {
+      expr: "Vd * (gain / RL + (gain + 0.5) / (R1 + R2)) + max(abs(VcmMin - Vref), abs(VcmMax - Vref)) / (R1 + R2)",
+      label: "Peak output current (load, feedback and common-mode current through R2)",
+      reference: "circuit analysis of the four-resistor bridge, I(R2) = (vd·(Gd + ½) − vcm)/(R1 + R2), worst-case signs",
+    },
+    currentAdvice: "raise RL or R1 and R2 (the common-mode input drives a current through R1 + R2 into the output), narrow the common-mode range, or add a buffer",
+  });
   supplySection(b, p, vPos, vNeg, O);
   const D = "Frequency response";
   b.formula({ key: "noise_gain", label: "Noise gain", symbol: "NG", expr: "1 + gain", unit: "V/V", reference: REF.bw }, {}, D);
@@ -263,6 +289,7 @@ export function computeDifference(input: DifferenceInput): CalcOutput {
     "The source resistances of V1 and V2 are negligible against R1 and R1 + R2 (an unequal source resistance unbalances the bridge and lowers the CMRR).",
     "The Vref pin is driven from a low impedance (any resistance there adds to R4).",
     "The op-amp CMRR entered is its data-sheet minimum and adds to the resistor term with the same sign (worst case).",
+    "Output current: the load plus the current through R2, which carries the common-mode input as (vcm − Vref)/(R1 + R2) even with no differential signal; both at their worst-case signs.",
   );
   return b.build();
 }
@@ -273,7 +300,7 @@ export const differenceAmplifier: CalcType<typeof differenceSchema> = {
   pack: "amplifier",
   title: "Difference amplifier",
   summary: "Designs a four-resistor difference amplifier and checks gain, worst-case CMRR from resistor tolerance, input common-mode range and output swing.",
-  version: "1.0.0",
+  version: "1.1.0",
   schema: differenceSchema,
   fields,
   defaults,

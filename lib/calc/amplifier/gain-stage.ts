@@ -348,7 +348,28 @@ export function computeGainStage(input: GainStageInput): CalcOutput {
   if (follower) b.formula({ key: "r_load_total", label: "Total load on the output", symbol: "RL,tot", expr: "RL", unit: "Ω" }, {}, O);
   else if (nonInv) b.formula({ key: "r_load_total", label: "Total load on the output (RL ‖ (Rf + Rg))", symbol: "RL,tot", expr: "RL * (Rf + Rg) / (RL + Rf + Rg)", unit: "Ω" }, {}, O);
   else b.formula({ key: "r_load_total", label: "Total load on the output (RL ‖ Rf)", symbol: "RL,tot", expr: "RL * Rf / (RL + Rf)", unit: "Ω" }, {}, O);
-  const { vOmax, vOmin } = outputSwingSection(b, { part: p, vPos, vNeg, vRef, vPeak: input.voutPeak, advice: split ? "" : ", re-centre Vbias", group: O });
+  const capCurrent = 2 * Math.PI * input.fMax * input.cLoad * input.voutPeak;
+  const { vOmax, vOmin } = outputSwingSection(b, {
+    part: p,
+    vPos,
+    vNeg,
+    vRef,
+    vPeak: input.voutPeak,
+    advice: split ? "" : ", re-centre Vbias",
+    group: O,
+    // A sine at fmax into RL,tot ∥ CL: |I| = Vo,pk·|1/RL,tot + j2πf·CL|; the CL current is 90°
+    // from the voltage, so at the voltage peak only the resistive current flows.
+    ...(input.cLoad > 0
+      ? {
+          peakCurrent: { expr: "Vpk * sqrt(1 / r_load_total^2 + (2 * pi * fmax * CL)^2)", label: "Peak output current (RL,tot and CL, sine at fmax)", reference: "definition (admittance of RL,tot ∥ CL at fmax)" },
+          swingCurrent: { expr: "Vpk / r_load_total", label: "Output current at the voltage peak (CL draws none there)" },
+          currentAdvice:
+            capCurrent * f.value("r_load_total") > input.voutPeak
+              ? `the load capacitance alone draws ${q(capCurrent, "A")} at ${q(input.fMax, "Hz")}: reduce CL or the amplitude, or add a buffer that can drive it`
+              : "raise the load or feedback resistances, reduce CL, or add a buffer",
+        }
+      : {}),
+  });
   const needHi = vRef + input.voutPeak;
   const needLo = vRef - input.voutPeak;
   supplySection(b, p, vPos, vNeg, O);
@@ -589,7 +610,7 @@ export const gainStage: CalcType<typeof gainStageSchema> = {
   pack: "amplifier",
   title: "Gain stage (inverting / non-inverting)",
   summary: "Designs an op-amp gain stage from preferred resistors and checks gain error, bandwidth, slew rate, swing, common-mode range, DC error, noise and stability.",
-  version: "1.0.0",
+  version: "1.1.0",
   schema: gainStageSchema,
   fields,
   defaults,

@@ -45,10 +45,29 @@ describe("difference amplifier", () => {
     expect(check("icmr.high").severity).toBe("pass"); // LW-OA610 on ±15 V: limit 13.5 V
   });
 
+  it("output current: load plus the current through R2, common mode included (hand calculation, shown here)", () => {
+    // With v1, v2, vout measured from Vref, the − input sits at Gd·v2/(1 + Gd), so
+    // I(R2) = (vout − v−)/R2 = (vd·(Gd + ½) − vcm)/(R1 + R2) for v2,1 = vcm ± vd/2.
+    // Defaults: Gd = 10, R1 = 10 kΩ, R2 = 100 kΩ, RL = 10 kΩ, Vd = 0.2 V peak, Vcm ±5 V, Vref 0:
+    //   load 2 V/10 kΩ = 200 µA; feedback 0.2·10.5/110 kΩ = 19.09 µA; common mode 5/110 kΩ = 45.45 µA
+    //   → 264.5 µA. (ngspice confirms the bridge algebra in tests/spice/amplifier-difference.test.ts.)
+    const { v } = run(T, { gain: "10", series: "E24", r1Target: "10k", rLoad: "10k", vdPeak: "0.2", vcmMin: "-5", vcmMax: "5", vRef: "0" });
+    expect(rel(v("i_out_peak"), 2 / 10e3 + (0.2 * 10.5) / 110e3 + 5 / 110e3)).toBeLessThan(1e-12);
+    // Common mode is measured from Vref: Vref = 5 V with Vcm 0…5 V leaves |vcm − Vref| ≤ 5 V.
+    const shifted = run(T, { gain: "10", series: "E24", r1Target: "10k", rLoad: "10k", vdPeak: "0.2", vcmMin: "0", vcmMax: "5", vRef: "5", supply: "single", vPos: "12" });
+    expect(rel(shifted.v("i_out_peak"), 2 / 10e3 + (0.2 * 10.5) / 110e3 + 5 / 110e3)).toBeLessThan(1e-12);
+  });
+
   it("unachievable: 80 dB CMRR from 1 % resistors fails with a sentence; common mode beyond the rails fails", () => {
     const r = run(T, { ...base, cmrrMinDb: "80" });
     expect(r.check("cmrr").severity).toBe("fail");
     expect(r.check("cmrr").message).toMatch(/below the required 80 dB/);
+    // The sentence says what tolerance would do (hand calculation): with a 200 dB op-amp the
+    // resistors need CMRR_r = 1/(1e-4 − 1e-10) ≈ 10 000 (80 dB), so p ≈ 11/(4·10 000) = 0.0275 %.
+    expect(r.check("cmrr").message).toMatch(/CMRR_r ≥ 80 dB, which needs a tolerance \(or matching\) of about 0\.0275 % at this gain \(now 1 %\)/);
+    // An op-amp whose own CMRR is below the requirement cannot be rescued by matching.
+    const oa = run(T, { ...base, tolerance: "0.01", cmrrOpampDb: "70", cmrrMinDb: "80" });
+    expect(oa.check("cmrr").message).toMatch(/op-amp's own CMRR already falls short/);
     expectWellFormed(r.out);
     const cm = run(T, { ...base, gain: "1", vcmMax: "40" });
     expect(cm.check("icmr.high").severity).toBe("fail");

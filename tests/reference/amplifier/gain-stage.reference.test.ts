@@ -221,6 +221,38 @@ describe("output swing, common-mode range and supply", () => {
     expect(r.check("swing.high").severity).toBe("pass");
   });
 
+  it("peak output current includes the load capacitance at fmax; the headroom does not (hand calculation, shown here)", () => {
+    // Defaults (E96: Rf = 10.2 kΩ, Rg = 1.13 kΩ, RL = 10 kΩ → RL,tot = 10k ∥ 11.33k = 5311.8 Ω),
+    // 2 V peak at 20 kHz into CL = 1 µF. A sine into RL,tot ∥ CL draws
+    // |I| = Vo,pk·√(1/RL,tot² + (2π·f·CL)²) = 2·√((188.3 µS)² + (125.66 mS)²) = 251.33 mA
+    // (admittance of a parallel RC). At the voltage peak the capacitor current is zero (it leads the
+    // voltage by 90°), so the swing headroom sees only 2 V/5311.8 Ω = 376.5 µA.
+    const r = run(T, { cLoad: "1u" });
+    const rTot = (10e3 * 11.33e3) / 21.33e3;
+    expect(rel(r.v("r_load_total"), rTot)).toBeLessThan(1e-12);
+    expect(rel(r.v("i_out_peak"), 2 * Math.hypot(1 / rTot, 2 * Math.PI * 20e3 * 1e-6))).toBeLessThan(1e-12);
+    expect(rel(r.v("i_out_at_vpk"), 2 / rTot)).toBeLessThan(1e-12);
+    expect(r.v("swing_derating")).toBe(0); // 376.5 µA < 2 V/2 kΩ = 1 mA of the swing specification
+    expect(r.check("output.current").severity).toBe("fail"); // 251 mA against the part's 40 mA
+    expect(r.check("output.current").message).toMatch(/the load capacitance alone draws 251\.3 mA at 20 kHz: reduce CL/);
+    // Without CL the peak current is the resistive one, as before.
+    expect(rel(run(T, { cLoad: "0" }).v("i_out_peak"), 2 / rTot)).toBeLessThan(1e-12);
+  });
+
+  it("an output cannot pass its supply rail: negative output headroom in the part data is limited to the rail", () => {
+    // Fact of the trade (no source): an op-amp output stage runs from its own rails, so the output
+    // reaches at most V+ and at least V−. Part data with −0.2 V headroom is a data error.
+    const p = toRawPart({ ...demoOpAmp("LW-OA320"), swingPos: -0.2, swingNeg: -0.1 });
+    const r = run(T, { opamp: p, voutPeak: "2.55" });
+    expect(r.v("v_out_max")).toBe(5); // not 5.2 V
+    expect(r.v("v_out_min")).toBe(0); // not −0.1 V
+    expect(r.check("swing.high").severity).toBe("fail"); // 2.5 V + 2.55 V = 5.05 V is beyond V+
+    expect(r.check("swing.high").message).toMatch(/Raise V\+ by at least 50 mV, reduce the amplitude to 2\.5 V peak/);
+    expect(r.check("swing.part").severity).toBe("warning");
+    expect(r.check("swing.part").message).toMatch(/−200 mV \(positive rail\) and −100 mV \(negative rail\)/);
+    expectWellFormed(r.out);
+  });
+
   it("non-inverting input swings with the signal, inverting input sits at the bias (single supply)", () => {
     // 5 V single supply, Vbias 2.5 V, 2 V peak out; part input range 0 … V+ − 1.5 V = 3.5 V.
     const p = part({ supplyMin: 3, supplyMax: 36, vicmPos: 1.5, vicmNeg: 0, swingPos: 0.1, swingNeg: 0.1 });
