@@ -8,6 +8,7 @@ import { listCalculations, listQuerySchema } from "@/lib/calculations";
 import { AppError } from "@/lib/errors";
 import { PageHeader, Tag } from "@/app/_components/ui";
 import { CalculationRegister } from "@/app/_components/calc/register";
+import { ProjectReports } from "@/app/_components/reports/project-reports";
 import { ProjectSettings } from "./project-settings";
 
 export const metadata: Metadata = { title: "Project" };
@@ -58,6 +59,7 @@ export default async function ProjectPage({ params, searchParams }: { params: Pr
           canCreate={can(ctx.role, "calc.create") && !project.archivedAt}
         />
       ) : null}
+      {can(ctx.role, "report.view") ? <ProjectReports ctx={ctx} projectId={projectId} /> : null}
       <ProjectSettings
         slug={slug}
         project={JSON.parse(JSON.stringify(project))}
