@@ -66,6 +66,7 @@ test("issue an approved calculation, download the signed PDF, verify it by code 
   await expect(dialog).toContainText("cannot change");
   await dialog.getByRole("button", { name: "Sign and issue" }).click();
   await expect(checker.getByTestId("calc-status")).toHaveText("Issued", { timeout: 30_000 });
+  await checker.screenshot({ path: info.outputPath("sheet-issued.png"), fullPage: false });
   const downloadLink = checker.getByTestId("download-report");
   await expect(downloadLink).toHaveText("Download PDF (rev A)");
   const [download] = await Promise.all([checker.waitForEvent("download"), downloadLink.click()]);
@@ -107,6 +108,7 @@ test("issue an approved calculation, download the signed PDF, verify it by code 
   await pub.getByRole("button", { name: "Check file" }).click();
   await expect(byFile).toContainText("Does not match any issued report");
   await expect(byFile).toContainText("changed since");
+  await pub.screenshot({ path: info.outputPath("verify.png"), fullPage: true });
 
   // The client is told by e-mail, sees the issued report (and no calculations) and downloads it.
   const mail = await waitForMail(clientEmail, /Report issued/);
@@ -118,6 +120,7 @@ test("issue an approved calculation, download the signed PDF, verify it by code 
   await expect(row).toContainText(code);
   await expect(row).toContainText("current");
   await expect(client.getByRole("heading", { name: "Calculation register" })).toHaveCount(0);
+  await client.screenshot({ path: info.outputPath("client-project.png"), fullPage: true });
   const [clientDownload] = await Promise.all([client.waitForEvent("download"), row.getByRole("link", { name: /Download/ }).click()]);
   const clientPath = info.outputPath("client.pdf");
   await clientDownload.saveAs(clientPath);

@@ -280,6 +280,17 @@ describe("issuing fails cleanly", () => {
     expect(await reportRows(w.calcId)).toHaveLength(1);
   });
 
+  it("refuses (409) a calculation computed by an older engine version than the one installed: the report must print what was approved", async () => {
+    const w = await makeWorld();
+    await approve(w);
+    await write((db) => db.update(calculations).set({ engineVersion: "0.9.0" }).where(eq(calculations.id, w.calcId)));
+    const r = await issueAs(w, w.checker);
+    expect(r.status).toBe(409);
+    expect((r.body.error as { message: string }).message).toContain("engine was updated (0.9.0 →");
+    expect(await reportRows(w.calcId)).toHaveLength(0);
+    expect((await calcRow(w.calcId)).status).toBe("approved");
+  });
+
   it("two concurrent issues of the same version: one report, the other 409", async () => {
     const w = await makeWorld();
     await approve(w);
