@@ -190,11 +190,11 @@ export function computeDifference(input: DifferenceInput): CalcOutput {
       pass: () => `Worst-case CMRR ${q(cmrrDb, "dB")} (${tolNote}, op-amp ${q(input.cmrrOpampDb, "dB")}) meets the required ${q(input.cmrrMinDb, "dB")}.`,
       fail: () => {
         const head = `Worst-case CMRR ${q(cmrrDb, "dB")} (${tolNote}, op-amp ${q(input.cmrrOpampDb, "dB")}) is below the required ${q(input.cmrrMinDb, "dB")}`;
-        if (input.cmrrOpampDb <= input.cmrrMinDb) {
-          return `${head}; the op-amp's own CMRR already falls short, so no resistor matching can meet it: choose a part with CMRR well above ${q(input.cmrrMinDb, "dB")} (the resistors then need matching too) or relax the requirement.`;
-        }
         // Resistor CMRR needed beside the op-amp's, then the tolerance from (1 + Gd)/(4p).
         const need = 1 / (10 ** (-input.cmrrMinDb / 20) - 10 ** (-input.cmrrOpampDb / 20));
+        if (input.cmrrOpampDb <= input.cmrrMinDb || !Number.isFinite(need) || need > 1e9) {
+          return `${head}; the op-amp's own CMRR already uses up the requirement, so no resistor matching can meet it: choose a part with CMRR well above ${q(input.cmrrMinDb, "dB")} (the resistors then need matching too) or relax the requirement.`;
+        }
         const pNeed = (1 + gd) / (4 * need);
         return `${head}; the resistors must give CMRR_r ≥ ${q(20 * Math.log10(need), "dB")}, which needs a tolerance (or matching) of about ${q(pNeed, "%", { scale: "percent" })} at this gain (now ${q(tol, "%", { scale: "percent" })}): use a matched resistor network, put more of the gain in this stage, or trim R4.`;
       },

@@ -30,7 +30,7 @@ import { formatQuantity as q, formatNumber } from "../core/units";
 import { finiteNumber, numberBetween, oneOf, positiveAtMost, yesNo } from "../core/schema";
 import { demoOpAmp, toRawPart } from "../core/demo-parts";
 import { outputSwingSection, supplySection, SWING_REFERENCE } from "./common";
-import { closedLoopAt, crossover, phaseMargin, secondOrder, type LoopModel } from "./opamp-model";
+import { closedLoopAt, crossover, lowestSecondPole, phaseMargin, secondOrder, type LoopModel } from "./opamp-model";
 import { gainStageNetlist } from "../spice/gain-stage";
 
 /** Boltzmann constant, J/K (exact, SI 2019). */
@@ -50,6 +50,7 @@ const REF = {
   noise: "Franco, Design with Op Amps, 4th ed., ch. 7; Horowitz & Hill 3rd ed., ch. 8 (4kTR)",
   nbw: "Franco, Design with Op Amps, 4th ed., ch. 7 (noise bandwidth of a single pole, π/2·f_B)",
   stab: "Franco, Design with Op Amps, 4th ed., ch. 8 (capacitive load, phase margin)",
+  loaded: "circuit theory: the open-loop output resistance Ro and the total load RL,tot divide the open-loop voltage",
   swing: SWING_REFERENCE,
 };
 
@@ -261,9 +262,17 @@ export function computeGainStage(input: GainStageInput): CalcOutput {
   }
   f.define({ Rf: { value: rf, unit: "Ω", symbol: "Rf" }, Rg: { value: rg, unit: "Ω", symbol: nonInv ? "Rg" : "Rin" } });
 
+  // ---- Load on the output (sets the loaded open-loop gain, the swing and the CL pole) ----------
+  const O = "Output and load";
+  if (follower) b.formula({ key: "r_load_total", label: "Total load on the output", symbol: "RL,tot", expr: "RL", unit: "Ω" }, {}, O);
+  else if (nonInv) b.formula({ key: "r_load_total", label: "Total load on the output (RL ‖ (Rf + Rg))", symbol: "RL,tot", expr: "RL * (Rf + Rg) / (RL + Rf + Rg)", unit: "Ω" }, {}, O);
+  else b.formula({ key: "r_load_total", label: "Total load on the output (RL ‖ Rf)", symbol: "RL,tot", expr: "RL * Rf / (RL + Rf)", unit: "Ω" }, {}, O);
+
   // ---- Gain --------------------------------------------------------------------------------
   const G = "Gain";
   b.formula({ key: "aol", label: "Open-loop DC gain", symbol: "A₀", expr: "10^(A0dB / 20)", unit: "V/V", reference: "definition of the decibel" }, {}, G);
+  // The open-loop output resistance and the total load divide the open-loop gain.
+  b.formula({ key: "aol_loaded", label: "Open-loop DC gain with the output loaded", symbol: "A₀,L", expr: "aol * r_load_total / (r_load_total + Ro)", unit: "V/V", reference: REF.loaded }, {}, G);
   if (follower) {
     b.formula({ key: "gain_ideal", label: "Signal gain (as designed)", symbol: "G", expr: "1", unit: "V/V", reference: REF.gain }, {}, G);
     b.formula({ key: "noise_gain", label: "Noise gain", symbol: "NG", expr: "1", unit: "V/V", reference: REF.gain }, {}, G);
@@ -275,7 +284,7 @@ export function computeGainStage(input: GainStageInput): CalcOutput {
     b.formula({ key: "noise_gain", label: "Noise gain", symbol: "NG", expr: "1 + Rf / (Rg + Rs)", unit: "V/V", reference: REF.gain }, {}, G);
   }
   b.formula({ key: "gain_snap_error", label: "Gain error from preferred values", symbol: "εsnap", expr: "gain_ideal / Gt - 1", unit: "%", scale: "percent", digits: 6 }, {}, G);
-  b.formula({ key: "loop_gain_dc", label: "DC loop gain", symbol: "T₀", expr: "aol / noise_gain", unit: "V/V", reference: REF.loop }, {}, G);
+  b.formula({ key: "loop_gain_dc", label: "DC loop gain", symbol: "T₀", expr: "aol_loaded / noise_gain", unit: "V/V", reference: REF.loop }, {}, G);
   b.formula({ key: "gain_dc", label: "DC gain with finite open-loop gain", symbol: "G_dc", expr: "gain_ideal / (1 + 1 / loop_gain_dc)", unit: "V/V", reference: REF.loop }, {}, G);
   if (follower) {
     b.formula({ key: "gain_max", label: "Gain, resistors at tolerance (high)", symbol: "G_max", expr: "1", unit: "V/V" }, {}, G);
@@ -309,26 +318,28 @@ export function computeGainStage(input: GainStageInput): CalcOutput {
     }),
   );
   if (!(t0 > 1)) {
-    b.check(makeCheck("gain.loop", "fail", "Loop gain", `The noise gain ${formatNumber(ng)} V/V exceeds the open-loop gain ${formatNumber(f.value("aol"))} V/V: there is no feedback left, so the gain is set by the op-amp, not the resistors. Split the gain over two stages.`, t0 - 1));
+    b.check(makeCheck("gain.loop", "fail", "Loop gain", `The noise gain ${formatNumber(ng)} V/V exceeds the loaded open-loop gain ${formatNumber(f.value("aol_loaded"))} V/V: there is no feedback left, so the gain is set by the op-amp, not the resistors. Split the gain over two stages.`, t0 - 1));
   }
 
   // ---- Bandwidth ---------------------------------------------------------------------------
   const D = "Frequency response";
+  const kLoad = f.value("aol_loaded") / f.value("aol");
   b.formula({ key: "f_pole", label: "Open-loop dominant pole", symbol: "fp", expr: "GBW / aol", unit: "Hz", reference: REF.pole }, {}, D);
   b.formula({ key: "f3db_gbw", label: "Closed-loop bandwidth (GBW / NG)", symbol: "f₋₃dB", expr: "GBW / noise_gain", unit: "Hz", reference: REF.bw }, {}, D);
-  const f3 = b.formula({ key: "f3db", label: "Closed-loop bandwidth (dominant-pole model)", symbol: "f₋₃dB,dp", expr: "GBW * (1 / noise_gain + 1 / aol)", unit: "Hz", reference: REF.pole }, {}, D);
+  // A(s) = A₀,L/(1 + s/ωp): the closed-loop pole is at fp·(1 + T₀) = GBW/A₀ + GBW·(A₀,L/A₀)/NG.
+  const f3 = b.formula({ key: "f3db", label: "Closed-loop bandwidth (dominant-pole model, output loaded)", symbol: "f₋₃dB,dp", expr: "f_pole * (1 + loop_gain_dc)", unit: "Hz", reference: REF.pole }, {}, D);
   const droop = b.formula({ key: "droop_fmax", label: "Gain droop at fmax", symbol: "εf", expr: "1 - 1 / sqrt(1 + (fmax / f3db)^2)", unit: "%", scale: "percent", reference: REF.pole }, {}, D);
   b.check(
     checkAtLeast("bandwidth", "Closed-loop bandwidth", f3, input.fMax, {
       pass: () => `Closed-loop bandwidth ${q(f3, "Hz")} (noise gain ${formatNumber(ng)} V/V, GBW ${q(p.gbw, "Hz")}) is above the highest signal frequency ${q(input.fMax, "Hz")}.`,
-      fail: () => `Closed-loop bandwidth ${q(f3, "Hz")} is below the highest signal frequency ${q(input.fMax, "Hz")}: noise gain ${formatNumber(ng)} V/V needs GBW ≥ ${q(ng * input.fMax, "Hz")} (part has ${q(p.gbw, "Hz")}); choose a faster op-amp or split the gain over two stages.`,
+      fail: () => `Closed-loop bandwidth ${q(f3, "Hz")} is below the highest signal frequency ${q(input.fMax, "Hz")}: noise gain ${formatNumber(ng)} V/V needs GBW ≥ ${q((ng * input.fMax) / kLoad, "Hz")} (part has ${q(p.gbw, "Hz")}${kLoad < 0.99 ? `; the load takes ${q((1 - kLoad) * 100, "%", { digits: 3 })} of the open-loop gain through Ro` : ""}); choose a faster op-amp or split the gain over two stages.`,
     }),
   );
   if (f3 >= input.fMax) {
     b.check(
       checkAtMost("bandwidth.droop", "Gain droop at fmax", droop, input.gainErrorMax, {
         pass: () => `Gain droop at ${q(input.fMax, "Hz")} is ${q(droop, "%", { scale: "percent" })}, within the allowed gain error.`,
-        fail: () => `Gain falls by ${q(droop, "%", { scale: "percent" })} at ${q(input.fMax, "Hz")}, more than the allowed ${q(input.gainErrorMax, "%", { scale: "percent" })}; flat gain to fmax needs GBW ≥ ${q(ng * input.fMax / Math.sqrt(Math.max(1e-30, 1 / (1 - input.gainErrorMax) ** 2 - 1)), "Hz")}.`,
+        fail: () => `Gain falls by ${q(droop, "%", { scale: "percent" })} at ${q(input.fMax, "Hz")}, more than the allowed ${q(input.gainErrorMax, "%", { scale: "percent" })}; flat gain to fmax needs GBW ≥ ${q((ng * input.fMax) / kLoad / Math.sqrt(Math.max(1e-30, 1 / (1 - input.gainErrorMax) ** 2 - 1)), "Hz")}.`,
       }),
     );
   }
@@ -344,10 +355,6 @@ export function computeGainStage(input: GainStageInput): CalcOutput {
   );
 
   // ---- Output swing and load ----------------------------------------------------------------
-  const O = "Output and load";
-  if (follower) b.formula({ key: "r_load_total", label: "Total load on the output", symbol: "RL,tot", expr: "RL", unit: "Ω" }, {}, O);
-  else if (nonInv) b.formula({ key: "r_load_total", label: "Total load on the output (RL ‖ (Rf + Rg))", symbol: "RL,tot", expr: "RL * (Rf + Rg) / (RL + Rf + Rg)", unit: "Ω" }, {}, O);
-  else b.formula({ key: "r_load_total", label: "Total load on the output (RL ‖ Rf)", symbol: "RL,tot", expr: "RL * Rf / (RL + Rf)", unit: "Ω" }, {}, O);
   const capCurrent = 2 * Math.PI * input.fMax * input.cLoad * input.voutPeak;
   const { vOmax, vOmin } = outputSwingSection(b, {
     part: p,
@@ -443,6 +450,19 @@ export function computeGainStage(input: GainStageInput): CalcOutput {
     }),
   );
 
+  // The output rests at the signal reference plus its DC error, so the signal swings around
+  // Vref ± Eo,wc: with a large noise gain the offset alone can use up the swing.
+  const roomSig = Math.min(vOmax - vRef, vRef - vOmin);
+  if (input.voutPeak <= roomSig) {
+    const peakWithDc = input.voutPeak + eWc;
+    b.check(
+      checkAtMost("swing.dc", "Output swing with the DC output error", peakWithDc, roomSig, {
+        pass: () => `The ${q(input.voutPeak, "V")} peak plus the worst-case DC output error ±${q(eWc, "V")} stays within ${q(vOmin, "V")} to ${q(vOmax, "V")}.`,
+        fail: () => `The output rests up to ±${q(eWc, "V")} from ${q(vRef, "V")} (worst-case DC output error over temperature), so the ${q(input.voutPeak, "V")} peak reaches ${q(vRef + peakWithDc, "V")} or ${q(vRef - peakWithDc, "V")}, beyond the output range ${q(vOmin, "V")} to ${q(vOmax, "V")}: the output clips. Keep the DC error below ${q(Math.max(0, roomSig - input.voutPeak), "V")} (lower-Vos part, bias-current compensation, or AC-couple Rg so the DC gain is 1), or reduce the amplitude to ${q(Math.max(0, roomSig - eWc), "V")} peak.`,
+      }),
+    );
+  }
+
   // ---- Noise ----------------------------------------------------------------------------------
   const N = "Noise";
   const rpAc = nonInv ? (split ? rpDc : par(input.rSource, rpDc)) : split ? rpDc : 0;
@@ -472,7 +492,7 @@ export function computeGainStage(input: GainStageInput): CalcOutput {
 
   // ---- Stability --------------------------------------------------------------------------------
   const S = "Stability";
-  const a0 = f.value("aol");
+  const a0 = f.value("aol_loaded");
   const fp = f.value("f_pole");
   let f2 = Infinity;
   if (input.cLoad > 0 && p.rout > 0) {
@@ -494,19 +514,26 @@ export function computeGainStage(input: GainStageInput): CalcOutput {
       b.result("overshoot", "Step overshoot", "OS", s2.overshoot * 100, "%", S);
       so = ` (ζ = ${formatNumber(s2.zeta, 3)}, peaking ${q(s2.peakingDb, "dB", { digits: 3 })}, overshoot ${q(s2.overshoot * 100, "%", { digits: 3 })})`;
     }
-    const msg = `Phase margin ${q(pm, "°", { digits: 3 })} at the ${q(fc, "Hz")} crossover with CL ${q(input.cLoad, "F")}${so}`;
-    const sev = pm >= 60 ? "pass" : pm >= 45 ? "warning" : "fail";
-    b.check(
-      makeCheck(
-        "stability.pm",
-        sev,
-        "Phase margin",
-        sev === "pass"
-          ? `${msg}: stable with good damping.`
-          : `${msg}: ${sev === "fail" ? "too little margin, the stage rings or oscillates" : "expect peaking and ringing"}. Add an isolation resistor between the output and CL (a few tens of ohms, inside or outside the loop), raise the noise gain, or choose a part rated for capacitive loads (target PM ≥ 60°, common practice).`,
-        (pm - 45) / 45,
-      ),
-    );
+    const noRo = input.cLoad > 0 && p.rout === 0;
+    const msg = `Phase margin ${q(pm, "°", { digits: 3 })} at the ${q(fc, "Hz")} crossover with CL ${q(input.cLoad, "F")}${noRo ? " not included" : ""}${so}`;
+    let sev: "pass" | "warning" | "fail" = pm >= 60 ? "pass" : pm >= 45 ? "warning" : "fail";
+    let text: string;
+    if (noRo) {
+      // Without Ro the load capacitance forms no pole in this model: the margin shown is that of
+      // the bare op-amp, which says nothing about CL. Never a pass.
+      if (sev === "pass") sev = "warning";
+      text = `${msg}: the part's open-loop output resistance Ro is entered as 0 Ω, so CL forms no second pole in this model and its effect on stability is not assessed. Enter Ro from the data sheet (tens to hundreds of ohms is typical) to check the capacitive load.`;
+    } else if (sev === "pass") {
+      text = `${msg}: stable with good damping.`;
+    } else {
+      // The largest CL that keeps PM ≥ 60° with this Ro, noise gain and load (bisection on f2).
+      const rPole = (p.rout * f.value("r_load_total")) / (p.rout + f.value("r_load_total"));
+      const f2min = lowestSecondPole(model, 60);
+      const clMax = Number.isFinite(f2min) && rPole > 0 ? 1 / (2 * Math.PI * rPole * f2min) : NaN;
+      const limit = Number.isFinite(clMax) ? ` PM ≥ 60° (common practice) needs CL ≤ ${q(clMax, "F")} with this part, noise gain and load;` : "";
+      text = `${msg}: ${sev === "fail" ? "too little margin, the stage rings or oscillates" : "expect peaking and ringing"}.${limit} otherwise add an isolation resistor between the output and CL (a few tens of ohms, inside or outside the loop), raise the noise gain, or choose a part rated for capacitive loads.`;
+    }
+    b.check(makeCheck("stability.pm", sev, "Phase margin", text, (pm - 45) / 45));
   }
 
   // ---- Plots -----------------------------------------------------------------------------------
@@ -592,10 +619,16 @@ export function computeGainStage(input: GainStageInput): CalcOutput {
   b.components.push({ ref: "U1", kind: "opamp", value: 0, display: p.name, role: "Op-amp" });
 
   b.assumptions.push(
-    "The op-amp is modelled by a single dominant pole (A₀, GBW); higher poles are ignored except the one from Ro and CL.",
+    "The op-amp is modelled by a single dominant pole (A₀, GBW); higher poles are ignored except the one from Ro and CL. A₀ is taken as the unloaded gain and divided by the load, A₀·RL,tot/(RL,tot + Ro) (conservative where the data sheet states A₀ at a load); the current Rf feeds forward into Ro is neglected.",
     "The load returns to the signal reference (ground on a split supply, Vbias on a single supply).",
-    ...(split ? [] : ["On a single supply, Rg (or the input resistor) returns to Vbias or is AC-coupled, so the output rests at Vbias; Vos is still taken at the full noise gain (conservative)."]),
-    "Output swing limits are the part's headroom figures at its stated load; for a heavier load the headroom grows by Ro × the extra peak current (an approximation).",
+    ...(split
+      ? []
+      : [
+          "On a single supply, Rg (or the input resistor) returns to Vbias, so the output rests at Vbias and the DC error is taken at the full noise gain; with Rg AC-coupled the DC gain is 1 and the Vos term is smaller (the bias-current terms then follow Rf and Rbias, not Rf‖Rg).",
+          ...(nonInv ? [] : ["Inverting on a single supply: the bias network at the + input is decoupled by a capacitor, so it adds no noise in the signal band."]),
+        ]),
+    "Output swing limits are the part's headroom figures at its stated load; for a heavier load the headroom grows by Ro × the extra peak current (an approximation). The output rests at the signal reference plus the worst-case DC output error.",
+    `Output current is that of a full-amplitude sine at fmax into RL ‖ the feedback network${input.cLoad > 0 ? " ‖ CL; a fast step into CL draws up to CL·SR" : ""}.`,
     `DC error: Vos, Ib and Ios at their data-sheet maxima with worst-case signs; ${input.ibModel === "doubling" ? "bias currents double every 10 °C above 25 °C" : "bias currents stay within the data-sheet maximum over temperature"}; ${compNote}.`,
     "Noise: white en with its 1/f corner, in at both inputs (uncorrelated), resistor noise 4kTR at 25 °C, all shaped by the closed-loop pole; peaking from CL is not included.",
     "Resistor tolerances are treated as independent worst-case extremes; resistor temperature coefficients are not included.",
@@ -610,7 +643,7 @@ export const gainStage: CalcType<typeof gainStageSchema> = {
   pack: "amplifier",
   title: "Gain stage (inverting / non-inverting)",
   summary: "Designs an op-amp gain stage from preferred resistors and checks gain error, bandwidth, slew rate, swing, common-mode range, DC error, noise and stability.",
-  version: "1.1.0",
+  version: "1.2.0",
   schema: gainStageSchema,
   fields,
   defaults,

@@ -81,3 +81,31 @@ export function secondOrder(m: LoopModel): { zeta: number; fn: number; peakingDb
 export function phaseMarginFromZeta(zeta: number): number {
   return (Math.atan((2 * zeta) / Math.sqrt(Math.sqrt(1 + 4 * zeta ** 4) - 2 * zeta * zeta)) * 180) / Math.PI;
 }
+
+/**
+ * The lowest second-pole frequency f2 ≥ fp (Hz) that still leaves a phase margin of at least
+ * `pmTargetDeg`, found by bisection in log f2. Above fp the phase margin grows with f2. (Below
+ * fp the roles of the poles swap and a very large CL can be stable again; that branch is not
+ * searched, since a design should not rely on it.) The largest load capacitance is then
+ * CL,max = 1 / (2π·R·f2) for the resistance R that forms the pole with CL.
+ * @param m the loop without its second pole (m.f2 is ignored)
+ * @param pmTargetDeg phase margin target, degrees (below the single-pole margin)
+ * @returns f2 in Hz, or NaN when the loop has no crossover (|T(0)| ≤ 1) or the target holds
+ *   even with f2 = fp (no limit on this branch)
+ */
+export function lowestSecondPole(m: LoopModel, pmTargetDeg: number): number {
+  if (!(m.a0 / m.noiseGain > 1)) return NaN;
+  const pmAt = (f2: number) => {
+    const mm = { ...m, f2 };
+    return phaseMargin(mm, crossover(mm));
+  };
+  let lo = Math.log(m.fp);
+  let hi = Math.log(Math.max(m.fp, (m.fp * m.a0) / m.noiseGain) * 1e6);
+  if (pmAt(Math.exp(lo)) >= pmTargetDeg || pmAt(Math.exp(hi)) < pmTargetDeg) return NaN;
+  for (let i = 0; i < 80; i++) {
+    const mid = (lo + hi) / 2;
+    if (pmAt(Math.exp(mid)) >= pmTargetDeg) hi = mid;
+    else lo = mid;
+  }
+  return Math.exp(hi);
+}

@@ -22,8 +22,9 @@ const split: RawInputs = { supply: "split", vPos: "15", vNeg: "-15", biasCompens
 
 describe("gain and closed-loop bandwidth", () => {
   it("f_B = f_t / (1 + R2/R1) (Franco 4th ed., ch. 6) and the dominant-pole closed form", () => {
-    // 2.7 kΩ / 300 Ω are both E24 (IEC 60063 Table 1), so NG = 10 exactly.
-    const { v } = run(T, { ...split, gain: "10", series: "E24", rfTarget: "2.7k", fMax: "1k", opamp: part({ gbw: 1e6, aolDb: 100 }) });
+    // 2.7 kΩ / 300 Ω are both E24 (IEC 60063 Table 1), so NG = 10 exactly. Ro = 0 as in the
+    // textbook case, so the load does not divide the open-loop gain.
+    const { v } = run(T, { ...split, gain: "10", series: "E24", rfTarget: "2.7k", fMax: "1k", opamp: part({ gbw: 1e6, aolDb: 100, rout: 0 }) });
     expect(v("noise_gain")).toBeCloseTo(10, 12);
     // Franco: f_B = 1 MHz / 10 = 100 kHz (hand-worked); formula evaluation is exact, so 1e-12.
     expect(rel(v("f3db_gbw"), 100e3)).toBeLessThan(1e-12);
@@ -32,6 +33,19 @@ describe("gain and closed-loop bandwidth", () => {
     expect(rel(v("f3db"), 100e3 + 10)).toBeLessThan(1e-12);
     // DC gain with finite loop gain: G/(1 + NG/A0) = 10/(1 + 1e-4) (Franco ch. 1).
     expect(rel(v("gain_dc"), 10 / 1.0001)).toBeLessThan(1e-12);
+  });
+
+  it("the output resistance and the load divide the open-loop gain (circuit theory, hand calculation shown here)", () => {
+    // Same stage, Ro = 300 Ω into RL = 300 Ω: RL,tot = 300 ∥ 3 kΩ = 272.73 Ω, so
+    // A₀,L = A₀·272.73/(272.73 + 300) = 0.47619·A₀ and T₀ = 0.47619·1e5/10 = 4761.9. The closed-loop
+    // pole is fp·(1 + T₀) = 10 Hz × 4762.9 = 47.629 kHz, not 100 kHz: ngspice confirms the loaded
+    // model in tests/spice/amplifier-gain-stage.test.ts.
+    const { v } = run(T, { ...split, gain: "10", series: "E24", rfTarget: "2.7k", fMax: "1k", rLoad: "300", cLoad: "0", opamp: part({ gbw: 1e6, aolDb: 100, rout: 300, ioutMax: 1 }) });
+    const rTot = (300 * 3000) / 3300;
+    const k = rTot / (rTot + 300);
+    expect(rel(v("aol_loaded"), 1e5 * k)).toBeLessThan(1e-12);
+    expect(rel(v("f3db"), 10 * (1 + (1e5 * k) / 10))).toBeLessThan(1e-12);
+    expect(rel(v("gain_dc"), 10 / (1 + 10 / (1e5 * k)))).toBeLessThan(1e-12);
   });
 
   it("the Bode plot's dominant-pole curve is 3.01 dB down at the computed f₋₃dB (plot and formula agree)", () => {
@@ -172,8 +186,11 @@ describe("stability with a capacitive load", () => {
   it("closed-loop peaking against an ngspice AC analysis of the same two-pole circuit", () => {
     // Circuit: VCVS A0 = 1e5 with an RC pole at 100 Hz (GBW 10 MHz), output through Ro = 100 Ω
     // into RL = 10 kΩ ∥ CL = 10 nF, Rf = Rg = 10 kΩ (NG = 2). ngspice (Debian ngspice-39) computes
-    // the full circuit; the engine's second-order equivalent neglects the DC loss Rx/(Rx + Ro)
-    // (1.8 % of loop gain here), so the bound is 0.3 dB on a ~15 dB peak and 2 % on its frequency.
+    // the full circuit. The engine's loop includes the DC loss Rx/(Rx + Ro) of the loaded output
+    // and neglects only the current Rf feeds forward into Ro (Ro/(Rf + Rg) = 0.5 %); the sampled
+    // peak of a 400-point-per-decade sweep is within half a step (0.29 %) of the true one, where
+    // the curve is flat, so the bounds are 0.02 dB on a ~15 dB peak and 0.5 % on its frequency.
+    // (Before the loaded gain was modelled the engine was 0.3 dB and 2 % off here.)
     const p = part({ gbw: 10e6, aolDb: 100, rout: 100, swingLoad: 2e3 });
     const { v } = run(T, { ...split, gain: "2", series: "E24", rfTarget: "10k", rLoad: "10k", cLoad: "10n", voutPeak: "1", fMax: "100", opamp: p });
     const net = [
@@ -203,14 +220,60 @@ describe("stability with a capacitive load", () => {
     mag.forEach((m, i) => (m > mag[iMax] ? (iMax = i) : 0));
     const spicePeakDb = 20 * Math.log10(mag[iMax] / mag[0]);
     expect(spicePeakDb).toBeGreaterThan(10); // the case really peaks
-    expect(Math.abs(v("peaking") - spicePeakDb)).toBeLessThan(0.3);
+    expect(Math.abs(v("peaking") - spicePeakDb)).toBeLessThan(0.02);
     const zeta = v("zeta");
     const fPeakModel = Math.sqrt(v("f_pole") * v("f_pole2") * (1 + v("loop_gain_dc"))) * Math.sqrt(1 - 2 * zeta * zeta);
-    expect(rel(fPeakModel, cols["frequency"][iMax])).toBeLessThan(0.02);
+    expect(rel(fPeakModel, cols["frequency"][iMax])).toBeLessThan(0.005);
+  });
+});
+
+describe("stability sentences", () => {
+  it("the phase-margin check says which CL keeps PM ≥ 60° (two-pole closed form, hand calculation shown here)", () => {
+    // For T0 ≫ 1 the loop T = (GBW/NG)/(jf·(1 + jf/f2)) has PM = 60° when fc/f2 = tan 30°, and
+    // |T(fc)| = 1 gives fc = (GBW/NG)·cos 30°, so f2 = 1.5·GBW/NG (Franco 4th ed., ch. 8 relations).
+    // Defaults: GBW 10 MHz, NG = 1 + 10.2k/1.13k = 10.0265; Ro ∥ RL,tot = 100 ∥ 5311.8 = 98.152 Ω.
+    // The loaded open-loop gain scales GBW by k = RL,tot/(RL,tot + Ro) = 5311.8/5411.8 = 0.98152,
+    // so f2 = 1.5·k·GBW/NG = 1.4684 MHz and CL,max = 1.1043 nF.
+    const ng = 1 + 10.2e3 / 1.13e3;
+    const rTot = (10e3 * 11.33e3) / 21.33e3;
+    const r = (100 * rTot) / (100 + rTot);
+    const k = rTot / (rTot + 100);
+    const clMax = 1 / (2 * Math.PI * r * 1.5 * ((k * 10e6) / ng));
+    const warn = run(T, { cLoad: "2.2n" });
+    expect(warn.check("stability.pm").severity).toBe("warning");
+    // The engine solves the finite-T0 loop (T0 = 3.2e4); it differs from the T0 → ∞ form by
+    // ~1/T0, far inside the 4 printed digits.
+    expect(warn.check("stability.pm").message).toContain(`needs CL ≤ ${(clMax * 1e9).toPrecision(4)} nF`);
+    // At that CL the margin is 60° (to the bisection's and the T0 ≫ 1 approximation's accuracy).
+    expect(Math.abs(run(T, { cLoad: String(clMax) }).v("phase_margin") - 60)).toBeLessThan(0.01);
+  });
+
+  it("with Ro = 0 in the part data a load capacitance cannot be assessed: a warning, never a pass", () => {
+    // Without Ro the model has no pole from CL, so the 90° margin would be that of the bare op-amp.
+    const r = run(T, { cLoad: "1u", opamp: toRawPart({ ...demoOpAmp("LW-OA320"), rout: 0 }) });
+    expect(r.check("stability.pm").severity).toBe("warning");
+    expect(r.check("stability.pm").message).toMatch(/Ro is entered as 0 Ω, so CL forms no second pole/);
+    expectWellFormed(r.out);
+    // With no CL there is nothing to assess: the single-pole margin (≈ 90°) passes.
+    expect(run(T, { cLoad: "0", opamp: toRawPart({ ...demoOpAmp("LW-OA320"), rout: 0 }) }).check("stability.pm").severity).toBe("pass");
   });
 });
 
 describe("output swing, common-mode range and supply", () => {
+  it("the DC output error shifts the swing: signal plus offset must fit (hand calculation, shown here)", () => {
+    // ×101 with E24 Rf = 10 kΩ, Rg = 100 Ω (NG = 101 exactly), Vos 20 mV, no bias currents or drift:
+    // Eo = 101 × 20 mV = 2.02 V. ±15 V rails with 2 V headroom leave ±13 V; a 12 V peak alone fits,
+    // but 12 V + 2.02 V = 14.02 V does not. Amplitude that fits: 13 − 2.02 = 10.98 V peak.
+    const p = part({ vos: 20e-3, vosDrift: 0, ib: 0, ios: 0, swingPos: 2, swingNeg: 2, gbw: 100e6, slewRate: 100e6 });
+    const r = run(T, { ...split, gain: "101", series: "E24", rfTarget: "10k", voutPeak: "12", fMax: "1k", dcErrorMax: "10", cLoad: "0", opamp: p });
+    expect(r.v("e_dc_wc")).toBeCloseTo(2.02, 12);
+    expect(r.check("swing.high").severity).toBe("pass");
+    expect(r.check("swing.dc").severity).toBe("fail");
+    expect(r.check("swing.dc").message).toMatch(/reaches 14\.02 V or −14\.02 V, beyond the output range −13 V to 13 V/);
+    expect(r.check("swing.dc").message).toMatch(/Keep the DC error below 1 V .* or reduce the amplitude to 10\.98 V peak/);
+    expect(run(T, { ...split, gain: "101", series: "E24", rfTarget: "10k", voutPeak: "10.9", fMax: "1k", dcErrorMax: "10", cLoad: "0", opamp: p }).check("swing.dc").severity).toBe("pass");
+  });
+
   it("heavier load than the swing spec: headroom grows by Ro·ΔI (common practice, no source)", () => {
     // Part: 1 V headroom at 2 kΩ, Ro = 50 Ω. Follower into 100 Ω at 5 V peak: ΔI = 50 mA − 2.5 mA,
     // ΔV = 50 × 47.5 mA = 2.375 V, so Vo,max = 15 − 1 − 2.375 = 11.625 V (hand-worked).
@@ -269,10 +332,13 @@ describe("output swing, common-mode range and supply", () => {
 
 describe("unachievable specifications give failing checks with sentences, never NaN", () => {
   it("gain beyond what GBW allows at the frequency", () => {
-    // NG ≈ 1000 with GBW 1 MHz gives ~1 kHz (Franco ch. 6); 100 kHz is out of reach.
+    // NG ≈ 1000 with GBW 1 MHz gives ~1 kHz (Franco ch. 6); 100 kHz is out of reach. The sentence
+    // says what GBW would do: NG·fmax over the load's share of the open-loop gain, hand-worked for
+    // Rf = 10 kΩ, Rg = 10 Ω (NG = 1001), RL,tot = 10k ∥ 10.01k = 5002.5 Ω, Ro = 75 Ω:
+    // 1001 × 100 kHz × (5077.5/5002.5) = 101.6 MHz.
     const r = run(T, { ...split, gain: "1000", fMax: "100k", opamp: part({ gbw: 1e6 }) });
     expect(r.check("bandwidth").severity).toBe("fail");
-    expect(r.check("bandwidth").message).toMatch(/GBW ≥ 100(\.\d+)? MHz/);
+    expect(r.check("bandwidth").message).toMatch(/needs GBW ≥ 101\.6 MHz \(part has 1 MHz; the load takes 1\.48 % of the open-loop gain through Ro\)/);
     expect(r.check("bandwidth").margin!).toBeLessThan(0);
     expectWellFormed(r.out);
   });
