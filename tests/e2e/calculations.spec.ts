@@ -15,7 +15,7 @@ import { expect, test, type Browser, type Page } from "@playwright/test";
 import { firstLink, signUp, uniqueEmail, waitForMail } from "./support";
 
 const SHOTS = process.env.CALC_SHOTS ?? path.join("test-results", "calc-shots");
-const shot = (page: Page, name: string) => page.screenshot({ path: path.join(SHOTS, `${name}.png`), fullPage: true });
+const shot = (page: Page, name: string, fullPage = true) => page.screenshot({ path: path.join(SHOTS, `${name}.png`), fullPage });
 
 /** Invite someone from the Members page and accept in a new browser context; returns their page. */
 async function inviteAndJoin(browser: Browser, owner: Page, slug: string, firm: string, who: { name: string; role: "engineer" | "checker" }): Promise<Page> {
@@ -284,7 +284,7 @@ test("two contexts edit one draft: the stale save is refused and keeps its value
   await expect(rows.nth(0)).toContainText("LW-OA320");
   await expect(rows.nth(1)).toContainText("LW-OA150");
   await expect(rows.nth(1)).toContainText("Fail");
-  await shot(a, "06-screening");
+  await shot(a, "06-screening", false);
   await rows.nth(0).getByRole("button", { name: "Use this part" }).click();
   await expect(dlg).toBeHidden();
   await expect(a.locator('[data-field="opamp"] select').first().locator("option:checked")).toHaveText("LW-OA320 rail-to-rail CMOS 5 V");

@@ -44,7 +44,7 @@ function integerProblem(field: FieldSpec & { kind: "integer" }, raw: unknown): s
 }
 
 const inputClass =
-  "h-8 w-full rounded border border-rule-strong bg-white/85 px-2 text-[13.5px] text-ink placeholder:text-ink-3/80 focus:border-copper focus:outline-none focus:ring-2 focus:ring-copper/20 aria-[invalid=true]:border-fail disabled:bg-transparent disabled:text-ink disabled:border-rule";
+  "h-8 w-full rounded border border-rule-strong bg-white/85 px-2 text-[13.5px] text-ink placeholder:text-ink-3/80 focus:border-copper focus:outline-none focus:ring-2 focus:ring-copper/20 aria-[invalid=true]:border-fail disabled:border-transparent disabled:bg-transparent disabled:text-ink disabled:opacity-100";
 
 function Label({ htmlFor, field }: { htmlFor: string; field: FieldSpec }) {
   return (

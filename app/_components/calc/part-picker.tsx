@@ -35,7 +35,7 @@ const TOPOLOGIES = [
 ];
 
 const cellInput =
-  "h-7 w-full rounded border border-rule-strong bg-white/85 px-1.5 text-right mono text-[12.5px] focus:border-copper focus:outline-none focus:ring-2 focus:ring-copper/20 aria-[invalid=true]:border-fail disabled:border-rule disabled:bg-transparent";
+  "h-7 w-full rounded border border-rule-strong bg-white/85 px-1.5 text-right mono text-[12.5px] focus:border-copper focus:outline-none focus:ring-2 focus:ring-copper/20 aria-[invalid=true]:border-fail disabled:border-transparent disabled:bg-transparent";
 
 export function PartPicker({
   id,

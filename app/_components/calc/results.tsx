@@ -158,7 +158,7 @@ export function EngineTable({ table }: { table: ResultTable }) {
             {table.rows.map((row, i) => (
               <tr key={i}>
                 {table.columns.map((c) => (
-                  <td key={c.key} className={c.align === "right" ? "num mono" : undefined}>
+                  <td key={c.key} className={c.align === "right" ? "num mono" : "whitespace-nowrap"}>
                     {row[c.key] ?? ""}
                   </td>
                 ))}

@@ -25,6 +25,7 @@ import { ScreeningDialog } from "./screening";
 import { MonteCarloRun } from "./monte-carlo";
 import { partFromLibrary } from "./part-picker";
 import { CheckCounts } from "./severity";
+import { AttachmentsPanel } from "../attachments/attachments-panel";
 import { STATUS_LABEL, dateTime, timeOfDay } from "./format";
 import type { LibraryPart, SheetCalculation, SheetPermissions, SheetType } from "./types";
 
@@ -304,11 +305,16 @@ export function CalculationSheet({
   const [screening, setScreening] = useState<string | null>(null);
   const applyLibraryPart = async (partId: string) => {
     if (!partField) return;
-    const parts = await qc.fetchQuery({
-      queryKey: ["parts", slug, partField.partKind],
-      queryFn: ({ signal }) => api<{ parts: LibraryPart[] }>(`/api/w/${slug}/parts?kind=${partField.partKind}`, { signal }).then((r) => r.parts),
-      staleTime: 60_000,
-    });
+    const key = ["parts", slug, partField.partKind];
+    const cached = qc.getQueryData<LibraryPart[]>(key);
+    // Screening reads the library afresh on the server; refetch when the cached list is older.
+    const parts = cached?.some((x) => x.id === partId)
+      ? cached
+      : await qc.fetchQuery({
+          queryKey: key,
+          queryFn: ({ signal }) => api<{ parts: LibraryPart[] }>(`/api/w/${slug}/parts?kind=${partField.partKind}`, { signal }).then((r) => r.parts),
+          staleTime: 0,
+        });
     const p = parts.find((x) => x.id === partId);
     if (p) form.setValue(partField.key, partFromLibrary(p), { shouldDirty: true });
     setScreening(null);
@@ -387,7 +393,7 @@ export function CalculationSheet({
         </div>
       </header>
 
-      <WorkflowBar slug={slug} calc={calc} me={me} perms={perms} inputsValid={!computeError && !!shown && !resultsStale} onTransition={onTransition} onChanged={onChanged} />
+      <WorkflowBar slug={slug} calc={calc} me={me} perms={perms} inputsValid={!computeError && !!shown && !resultsStale && save.kind !== "stale"} onTransition={onTransition} onChanged={onChanged} />
 
       <div className="mb-4 space-y-2">
         {save.kind === "stale" ? (
@@ -466,7 +472,14 @@ export function CalculationSheet({
             <h2 className="text-[15px] font-semibold">Inputs</h2>
             <span className="text-[12px] text-ink-3">as typed: 4k7, 2.2u, 10 kHz</span>
           </div>
-          <InputsForm form={form} fields={type.fields} serverErrors={serverErrors} readOnly={!editable} slug={slug} onScreenParts={partField && perms.packUnlocked ? () => setScreening(JSON.stringify(form.getValues())) : undefined} />
+          <InputsForm form={form} fields={type.fields} serverErrors={serverErrors} readOnly={!editable} slug={slug} onScreenParts={
+              partField && perms.packUnlocked
+                ? () => {
+                    void qc.invalidateQueries({ queryKey: ["parts", slug] });
+                    setScreening(JSON.stringify(form.getValues()));
+                  }
+                : undefined
+            } />
         </aside>
 
         <main className="pad min-w-0 rounded-lg border border-rule px-5 py-4" aria-label="Results pad">
@@ -510,8 +523,12 @@ export function CalculationSheet({
 
       <div className="mt-6 grid gap-5 lg:grid-cols-[minmax(360px,430px)_minmax(0,1fr)]">
         <CommentsPanel slug={slug} calcId={initial.id} canComment={perms.edit && perms.writable} />
-        {/* Attachments: the attachments engineer's panel goes here once app/_components/attachments lands. */}
-        <div />
+        <AttachmentsPanel
+          slug={slug}
+          calcId={initial.id}
+          canEdit={perms.edit && perms.writable && calc.status !== "issued"}
+          readOnlyReason={!perms.edit ? "Your role can read attachments but not change them." : !perms.writable ? perms.readOnlyMessage : calc.status === "issued" ? `Revision ${calc.revision} is issued: its attachments are part of the record.` : undefined}
+        />
       </div>
 
       {partField ? (
