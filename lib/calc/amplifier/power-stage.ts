@@ -236,8 +236,9 @@ export function computePowerStage(input: PowerStageInput): CalcOutput {
           : `The ${q(input.vPeak, "V")} peak output exceeds the ${q(vpMax, "V")} this stage can swing: it clips. ${cls === "class-a-series" ? `Set ICQ near ${q(input.vcc / (2 * input.rLoad), "A")} for the largest symmetrical swing, or raise` : "Raise"} VCC, or reduce the amplitude.`,
     }),
   );
-  if (cls === "class-a-series" && f.value("v_ceq") <= input.vSat) {
-    b.check(makeCheck("bias.saturated", "fail", "Bias point", `ICQ·RL = ${q((input.iq ?? 0) * input.rLoad, "V")} leaves VCEQ = ${q(f.value("v_ceq"), "V")}, at or below Vsat ${q(input.vSat, "V")}: the device is saturated with no signal. Lower ICQ to about ${q(input.vcc / (2 * input.rLoad), "A")}.`, -1));
+  const saturated = cls === "class-a-series" && f.value("v_ceq") <= input.vSat;
+  if (saturated) {
+    b.check(makeCheck("bias.saturated", "fail", "Bias point", `ICQ·RL = ${q((input.iq ?? 0) * input.rLoad, "V")} leaves VCEQ = ${q(f.value("v_ceq"), "V")}, at or below Vsat ${q(input.vSat, "V")}: the device is saturated with no signal, so ICQ cannot flow and the powers above do not apply. Lower ICQ to about ${q(input.vcc / (2 * input.rLoad), "A")}.`, -1));
   }
 
   // ---- Thermal chain -----------------------------------------------------------------------
@@ -246,7 +247,12 @@ export function computePowerStage(input: PowerStageInput): CalcOutput {
   const shared = pushPull && input.sharedHeatsink === true;
   const tjTarget = input.tjMax - input.tjMargin;
   b.formula({ key: "tj_target", label: "Junction temperature target", symbol: "Tj,target", expr: "TjMax - dTj", unit: "°C" }, {}, T);
-  if (pDevMax <= 1e-12) {
+  if (saturated) {
+    // A saturated device carries (VCC − Vsat)/RL, not ICQ, and dissipates about Vsat times that:
+    // the idle figures say nothing about its temperature, so the heatsink cannot be sized yet.
+    const iSat = Math.max(0, input.vcc - input.vSat) / input.rLoad;
+    b.check(makeCheck("thermal.heatsink", "fail", "Heatsink", `The heatsink cannot be sized while the device is saturated: it then carries about ${q(iSat, "A")} and dissipates about Vsat × that = ${q(input.vSat * iSat, "W")} plus its drive power, not the ${q(pDevMax, "W")} the bias figures give. Correct the bias point (ICQ near ${q(input.vcc / (2 * input.rLoad), "A")}) and size the heatsink then.`, -1));
+  } else if (pDevMax <= 1e-12) {
     b.check(makeCheck("thermal.heatsink", "pass", "Heatsink", "The devices dissipate no power at any level, so no heatsink is needed."));
   } else {
     if (shared) {
@@ -313,7 +319,10 @@ export function computePowerStage(input: PowerStageInput): CalcOutput {
   );
 
   b.assumptions.push(
-    "Sine-wave drive; ideal devices apart from the saturation voltage; supply and load resistances are as entered.",
+    "Sine-wave drive into a resistive load; ideal devices apart from the saturation voltage; supply and load resistances are as entered.",
+    ...(pushPull
+      ? ["Other signals can dissipate more than the sine-wave maximum: a square wave at half the rail voltage dissipates VCC²/(4RL) in the pair, 23 % above 2VCC²/(π²RL), and a reactive load (a loudspeaker) adds dissipation; size the heatsink for such signals if they can occur."]
+      : []),
     ...(cls === "class-a-transformer" ? ["Ideal transformer or choke: winding resistance and core loss are neglected, so VCEQ = VCC."] : []),
     ...(pushPull ? ["Push-pull devices share the dissipation equally; each rail is ±VCC (a single supply with an output capacitor behaves as ±VCC/2)."] : []),
     ...(cls === "class-ab" ? ["Class AB: the idle current is taken to flow for the whole cycle on top of the class B current, which overstates the dissipation slightly (conservative)."] : []),
@@ -324,6 +333,11 @@ export function computePowerStage(input: PowerStageInput): CalcOutput {
     `Heatsinks and device cases run hot (design target Tj ${q(tjTarget, "°C")}); guard them against touch and keep them clear of heat-sensitive parts.`,
     "Check each device against its maker's safe-operating-area curves and power derating at the case temperature; the maker's data overrides this calculation.",
     "Fuse each supply rail and the load where a fault could overheat wiring or devices; size the fuses to the wiring and the device ratings.",
+    ...(cls === "class-a-transformer"
+      ? [`The collector swings up to 2·VCC = ${q(2 * input.vcc, "V")}, plus any inductive overshoot when the signal is interrupted: rate the device's VCEO above that and clamp the winding.`]
+      : pushPull
+        ? [`Each output device must withstand 2·VCC = ${q(2 * input.vcc, "V")} across it when the other drives the output to its rail; rate VCEO above that.`]
+        : []),
     "Mains-powered supplies and voltages above the safety extra-low voltage limit need the creepage, clearance, insulation and earthing of the applicable standard; follow local codes and licensed practice.",
   );
   if (input.vcc * (pushPull ? 2 : 1) > 50) {
@@ -338,7 +352,7 @@ export const powerStage: CalcType<typeof powerStageSchema> = {
   pack: "amplifier",
   title: "Output / power stage (class A, B, AB)",
   summary: "Efficiency, device dissipation and its worst case, and the heatsink thermal chain for class A, B and AB output stages.",
-  version: "1.0.0",
+  version: "1.0.1",
   schema: powerStageSchema,
   fields,
   defaults,

@@ -103,6 +103,35 @@ describe("unachievable specifications", () => {
     expect(r.check("thermal.heatsink").message).toMatch(/No heatsink can hold the junction/);
     expectWellFormed(r.out);
   });
+  it("a saturated class A bias never passes the heatsink check (hand calculation, shown here)", () => {
+    // VCC 24 V, RL 8 Ω, ICQ 5 A: ICQ·RL = 40 V > VCC, so VCEQ = 24 − 40 = −16 V — the device is
+    // saturated. It then carries (VCC − Vsat)/RL = (24 − 2)/8 = 2.75 A and dissipates about
+    // Vsat × 2.75 A = 5.5 W, while the idle formula VCEQ·ICQ clips to 0 W. Formerly the heatsink
+    // check passed with "the devices dissipate no power".
+    const r = run(T, { stageClass: "class-a-series", vcc: "24", rLoad: "8", iq: "5", vPeak: "5", vSat: "2" });
+    expect(r.v("v_ceq")).toBeCloseTo(-16, 12);
+    expect(r.check("bias.saturated").severity).toBe("fail");
+    expect(r.check("thermal.heatsink").severity).toBe("fail");
+    expect(r.check("thermal.heatsink").message).toMatch(/carries about 2\.75 A and dissipates about Vsat × that = 5\.5 W/);
+    expect(r.check("thermal.heatsink").message).toMatch(/ICQ near 1\.5 A/); // VCC/(2RL), Boylestad & Nashelsky
+    expectWellFormed(r.out);
+  });
+
+  it("push-pull and transformer-coupled stages warn that a device sees 2·VCC", () => {
+    // Push-pull on ±VCC: with the output at +VCC the off device has VCC − (−VCC) across it (circuit
+    // reasoning). Transformer-coupled class A: the collector swings to 2·VCC (Boylestad & Nashelsky,
+    // ch. Power Amplifiers; value from memory).
+    expect(run(T, { stageClass: "class-b", vcc: "30", rLoad: "16", vPeak: "20" }).out.cautions.join(" ")).toMatch(/withstand 2·VCC = 60 V/);
+    expect(run(T, { stageClass: "class-a-transformer", vcc: "12", rLoad: "8", turnsRatio: "3", iq: "0.1", vPeak: "1" }).out.cautions.join(" ")).toMatch(/up to 2·VCC = 24 V/);
+  });
+
+  it("the assumptions say a square wave at half the rail dissipates 23 % more than the sine maximum (hand calculation, shown here)", () => {
+    // Square wave ±VCC/2 into RL: the conducting device has VCC/2 across it and VCC/(2RL) through
+    // it, so the pair dissipates VCC²/(4RL) on average; the sine maximum is 2VCC²/(π²RL).
+    expect(0.25 / (2 / Math.PI ** 2) - 1).toBeCloseTo(0.2337, 4);
+    expect(run(T, { stageClass: "class-b", vcc: "30", rLoad: "16", vPeak: "20" }).out.assumptions.join(" ")).toMatch(/VCC²\/\(4RL\) in the pair, 23 % above 2VCC²\/\(π²RL\)/);
+  });
+
   it("amplitude beyond the supply clips", () => {
     const r = run(T, { stageClass: "class-ab", vcc: "12", rLoad: "8", vPeak: "15" });
     expect(r.check("output.amplitude").severity).toBe("fail");
