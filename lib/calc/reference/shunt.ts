@@ -141,8 +141,12 @@ export function computeShunt(input: ShuntInput): CalcOutput {
   const prShort = b.formula({ key: "p_res_short", label: "Resistor dissipation with the output shorted", symbol: "PR,short", expr: "VsMax^2 / (R * (1 - tol))", unit: "W", reference: REF.power }, {}, W);
   const dv = b.formula({ key: "dv_regulation", label: "Output change over supply and load (Zd·ΔIz)", symbol: "ΔVz", expr: "Zd * (iz_max_wc - iz_min_wc)", unit: "V" }, {}, W);
 
+  // When Rmax is itself a preferred value, R = Rmax meets Iz,min exactly; a round-off of 1e-16
+  // must not turn that into "60 µA is below its minimum 60 µA". The slack (1e-9 of the current
+  // through R) is far below any resistor tolerance.
+  const roundOff = 1e-9 * (r.iMin + input.iLoadMax);
   b.check(
-    checkAtLeast("current.min", "Minimum reference current", izLo, r.iMin, {
+    checkAtLeast("current.min", "Minimum reference current", izLo + roundOff, r.iMin, {
       pass: () => `At the lowest supply and the largest load the reference still gets ${q(izLo, "A")}, at least its minimum ${q(r.iMin, "A")} (R = ${q(rSel, "Ω")} at +${q(tol, "%", { scale: "percent" })}).`,
       fail: () => `At the lowest supply and the largest load the reference gets only ${q(izLo, "A")}, below its minimum ${q(r.iMin, "A")}: it drops out of regulation. Lower R or raise the minimum supply.`,
     }),
@@ -205,7 +209,7 @@ export const shuntReference: CalcType<typeof shuntSchema> = {
   pack: "reference",
   title: "Shunt / Zener reference bias resistor",
   summary: "Chooses the bias resistor of a shunt or Zener reference over the supply and load range and checks its current and dissipation limits.",
-  version: "1.0.0",
+  version: "1.0.1",
   schema: shuntSchema,
   fields,
   defaults,

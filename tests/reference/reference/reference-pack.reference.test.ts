@@ -51,6 +51,18 @@ describe("reference.shunt", () => {
     expect(v("p_res_max")).toBeCloseTo((5.5 - 2.4875) ** 2 / 1782, 12);
   });
 
+  it("Rmax that is itself a preferred value is used and passes (hand calculation, shown here)", () => {
+    // Ideal 2.5 V shunt (0 % accuracy), Iz,min 60 µA, Vs,min 5 V, IL,max 1.19 mA, 0 % E24:
+    // Rmax = 2.5 V / 1.25 mA = 2 kΩ, an E24 member (IEC 60063 Table 1), so R = 2 kΩ and
+    // Iz,lo = 2.5 V/2 kΩ − 1.19 mA = 60 µA, exactly the minimum. Formerly the 1e-16 round-off of
+    // this subtraction failed the check with "60 µA, below its minimum 60 µA".
+    const ideal = ref("LW-SR25", { accuracy: 0 });
+    const { v, check } = run(SHUNT, { reference: ideal, vSupplyMin: "5", iLoadMax: "1.19m", tolerance: "0" });
+    expect(v("r_selected")).toBe(2000);
+    expect(Math.abs(v("iz_min_wc") - 60e-6)).toBeLessThan(1e-15);
+    expect(check("current.min").severity).toBe("pass");
+  });
+
   it("unachievable: supply below the reference, and a supply range too wide for a resistor feed", () => {
     const low = run(SHUNT, { vSupplyMin: "2.4", vSupplyMax: "5" });
     expect(low.check("supply.headroom").severity).toBe("fail");

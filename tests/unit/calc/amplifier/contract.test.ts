@@ -17,7 +17,7 @@ const VERSIONS: Record<string, string> = {
   "amplifier.gain-stage": "1.2.0",
   "amplifier.difference": "1.1.0",
   "amplifier.power-stage": "1.0.1",
-  "reference.shunt": "1.0.0",
+  "reference.shunt": "1.0.1",
   "reference.adjustable": "1.0.1",
   "reference.adc-budget": "1.0.1",
 };

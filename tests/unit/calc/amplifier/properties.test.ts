@@ -6,9 +6,9 @@ import { describe, expect, it } from "vitest";
 import fc from "fast-check";
 import { gainStage, gainStageSchema } from "@/lib/calc/amplifier/gain-stage";
 import { differenceAmplifier, differenceSchema } from "@/lib/calc/amplifier/difference";
-import { powerStage, powerStageSchema } from "@/lib/calc/amplifier/power-stage";
+import { powerStage, powerStageSchema, operatingPoint } from "@/lib/calc/amplifier/power-stage";
 import { parseRawInputs } from "@/lib/calc/core/inputs";
-import type { CalcType } from "@/lib/calc/core/types";
+import type { CalcOutput, CalcType } from "@/lib/calc/core/types";
 import { expectWellFormed, invalidFieldProperty, logDouble, opAmpArb, tempRange, uniform, zeroOr } from "../core/arbitraries";
 
 const gainStageArb = fc
@@ -166,6 +166,102 @@ describe("schema-valid input → well-formed output, no throw", () => {
       }),
       { numRuns: 400 },
     );
+  });
+});
+
+/** Result getter of one output (throws on a missing key, so a renamed result fails loudly). */
+function results(out: CalcOutput): (key: string) => number {
+  return (key) => {
+    const r = out.results.find((x) => x.key === key);
+    if (!r) throw new Error(`no result ${key}`);
+    return r.value;
+  };
+}
+
+/** Relative slack for comparisons of computed doubles (a few ulps of accumulated round-off). */
+const EPS = 1e-9;
+
+describe("physical invariants over the whole schema (not only the defaults)", () => {
+  it("amplifier.gain-stage: gain within its tolerance band, WC ≥ RSS, output inside the rails, PM in (0°, 180°]", () => {
+    const seen = new Map<string, Set<string>>();
+    fc.assert(
+      fc.property(gainStageArb, (raw) => {
+        const out = gainStage.compute(gainStageSchema.parse(raw));
+        const v = results(out);
+        // Resistor tolerance can only widen the gain around its nominal (Franco ch. 1 algebra).
+        expect(v("gain_min")).toBeLessThanOrEqual(Math.abs(v("gain_ideal")) * (1 + EPS));
+        expect(v("gain_max")).toBeGreaterThanOrEqual(Math.abs(v("gain_ideal")) * (1 - EPS));
+        // A root-sum-square of the same terms never exceeds their plain sum.
+        expect(v("e_dc_rss")).toBeLessThanOrEqual(v("e_dc_wc") * (1 + EPS) + 1e-300);
+        // The load can only take open-loop gain away; the loaded bandwidth is at most GBW/NG + fp.
+        expect(v("aol_loaded")).toBeLessThanOrEqual(v("aol") * (1 + EPS));
+        expect(v("f3db")).toBeLessThanOrEqual((v("f3db_gbw") + v("f_pole")) * (1 + EPS));
+        // A single-pole noise bandwidth never exceeds π/2 of its −3 dB frequency (Franco ch. 7).
+        expect(v("nbw")).toBeLessThanOrEqual((Math.PI / 2) * v("f3db") * (1 + EPS));
+        // An output cannot pass its rails; the peak current is at least the resistive one.
+        const vNeg = raw.supply === "split" ? (raw.vNeg ?? 0) : 0;
+        expect(v("v_out_max")).toBeLessThanOrEqual(raw.vPos);
+        expect(v("v_out_min")).toBeGreaterThanOrEqual(vNeg);
+        expect(v("i_out_peak")).toBeGreaterThanOrEqual((raw.voutPeak / v("r_load_total")) * (1 - EPS));
+        if (out.results.some((r) => r.key === "phase_margin")) {
+          expect(v("phase_margin")).toBeGreaterThan(0);
+          expect(v("phase_margin")).toBeLessThanOrEqual(180);
+        }
+        for (const c of out.checks) {
+          if (!seen.has(c.id)) seen.set(c.id, new Set());
+          seen.get(c.id)!.add(c.severity);
+        }
+      }),
+      { numRuns: 400 },
+    );
+    // The generator reaches both outcomes of every main check, so the properties above are tested
+    // on failing designs as well as passing ones.
+    for (const id of ["gain.error", "bandwidth", "slew", "swing.high", "swing.low", "output.current", "supply.range", "icmr.high", "icmr.low", "dc.error", "noise.snr", "stability.pm"]) {
+      expect([...(seen.get(id) ?? [])].sort(), id).toEqual(expect.arrayContaining(["fail", "pass"]));
+    }
+  });
+
+  it("amplifier.difference: stage CMRR never above either of its parts, output current at least the load's", () => {
+    fc.assert(
+      fc.property(differenceArb, (raw) => {
+        const out = differenceAmplifier.compute(differenceSchema.parse(raw));
+        const v = results(out);
+        // 1/CMRR = 1/CMRR_r + 1/CMRR_OA (Franco ch. 5): the sum is below each term.
+        expect(v("cmrr_total")).toBeLessThanOrEqual(Math.min(v("cmrr_r_corners"), v("cmrr_oa")) * (1 + EPS));
+        expect(v("i_out_peak")).toBeGreaterThanOrEqual(((v("gain") * raw.vdPeak) / raw.rLoad) * (1 - EPS));
+        // A bridge of resistors with any tolerance left has some common-mode gain at its worst corner.
+        expect(v("acm_max")).toBeGreaterThan(0);
+      }),
+      { numRuns: 400 },
+    );
+  });
+
+  it("amplifier.power-stage: efficiency within the class limit and the worst-case dissipation really the worst, whenever the stage can swing the amplitude", () => {
+    const seen = new Set<string>();
+    fc.assert(
+      fc.property(powerArb, (raw) => {
+        const input = powerStageSchema.parse(raw);
+        const out = powerStage.compute(input);
+        const v = results(out);
+        const amp = out.checks.find((c) => c.id === "output.amplitude")!;
+        seen.add(amp.severity);
+        expect(v("p_dev")).toBeGreaterThanOrEqual(0);
+        if (amp.severity !== "fail" && !out.checks.some((c) => c.id === "bias.saturated")) {
+          // Boylestad & Nashelsky: 25 % (series-fed A), 50 % (transformer-coupled A), π/4 (B, AB).
+          expect(v("efficiency")).toBeLessThanOrEqual(v("efficiency_limit") * (1 + EPS));
+          // The per-device worst case over all amplitudes is at least the dissipation at this one.
+          expect(v("p_dev")).toBeLessThanOrEqual(v("p_dev_max") * (1 + EPS) + 1e-12);
+          // …and at least at every amplitude the stage can deliver (independent sweep, 201 points).
+          const perDevice = input.stageClass === "class-b" || input.stageClass === "class-ab" ? 0.5 : 1;
+          for (let i = 0; i <= 200; i++) {
+            const a = (v("vp_max") * i) / 200;
+            expect(operatingPoint(input, a).pDevTotal * perDevice).toBeLessThanOrEqual(v("p_dev_max") * (1 + 1e-9) + 1e-12);
+          }
+        }
+      }),
+      { numRuns: 400 },
+    );
+    expect([...seen].sort()).toEqual(expect.arrayContaining(["fail", "pass"]));
   });
 });
 
