@@ -12,8 +12,13 @@ const RUNS = 2000;
 
 /** Variants per type: the defaults plus a few configurations that take other code paths. */
 const VARIANTS: Record<string, RawInputs[]> = {
-  "amplifier.gain-stage": [{}, { configuration: "inverting", supply: "split", vPos: "15", vNeg: "-15", gain: "47", series: "E192", biasCompensation: true }],
-  "amplifier.difference": [{}],
+  "amplifier.gain-stage": [
+    {},
+    { configuration: "inverting", supply: "split", vPos: "15", vNeg: "-15", gain: "47", series: "E192", biasCompensation: true },
+    // Low phase margin: the sentence searches the largest CL for 60° (bisection).
+    { cLoad: "10n" },
+  ],
+  "amplifier.difference": [{}, { gain: "0.1", r1Target: "100k", vcmMin: "-100", vcmMax: "100", vdPeak: "10", cmrrMinDb: "80" }],
   "amplifier.power-stage": [{}, { stageClass: "class-a-series", iq: "1", vcc: "24", vPeak: "5" }],
   "reference.shunt": [{}],
   "reference.adjustable": [{}],

@@ -33,6 +33,7 @@ const REF = {
   cmrrSum: "Franco, Design with Op Amps, 4th ed., ch. 5 (combined CMRR, 1/CMRR = 1/CMRR_r + 1/CMRR_OA, worst case)",
   bw: "Franco, Design with Op Amps, 4th ed., ch. 6 (closed-loop bandwidth f_t / (1/β))",
   slew: "Franco, Design with Op Amps, 4th ed., ch. 6 (slew rate, full-power bandwidth)",
+  dc: "Franco, Design with Op Amps, 4th ed., ch. 5 (output error from Vos and IOS; balanced resistances cancel IB)",
 };
 
 /** Input schema of the difference amplifier, SI base units. */
@@ -256,6 +257,23 @@ export function computeDifference(input: DifferenceInput): CalcOutput {
       fail: () => `Slew rate ${q(p.slewRate, "V/s")} is below the ${q(srReq, "V/s")} a ${q(gd * input.vdPeak, "V")} peak output at ${q(input.fMax, "Hz")} needs; choose a faster part or reduce amplitude or frequency.`,
     }),
   );
+  // ---- DC output error and the swing it uses up ----------------------------------------------
+  // Balanced bridge: both inputs see R1 ∥ R2, so the bias current cancels and Ios remains:
+  // Eo = NG·(Vos + (R1 ∥ R2)·Ios) = (1 + Gd)·Vos + R2·Ios (Franco ch. 5), plus the common-mode error.
+  const E = "DC error";
+  f.define({ Vos: { value: p.vos, unit: "V", symbol: "Vos" }, Ios: { value: p.ios, unit: "A", symbol: "Ios" } });
+  b.formula({ key: "e_offset", label: "Output error from Vos and Ios (25 °C)", symbol: "Eo,os", expr: "noise_gain * Vos + R2 * Ios", unit: "V", reference: REF.dc }, {}, E);
+  const eDc = b.formula({ key: "e_dc", label: "DC output error, worst case (Vos, Ios and common mode, 25 °C)", symbol: "Eo", expr: "e_offset + cm_error_out", unit: "V" }, {}, E);
+  const vpk = gd * input.vdPeak;
+  const roomSig = Math.min(vOmax - input.vRef, input.vRef - vOmin);
+  if (vpk <= roomSig) {
+    b.check(
+      checkAtMost("swing.dc", "Output swing with the DC output error", vpk + eDc, roomSig, {
+        pass: () => `The ${q(vpk, "V")} peak plus the worst-case DC output error ±${q(eDc, "V")} (offset and common mode) stays within ${q(vOmin, "V")} to ${q(vOmax, "V")}.`,
+        fail: () => `The output rests up to ±${q(eDc, "V")} from Vref (offset ${q(f.value("e_offset"), "V")}, common mode ${q(f.value("cm_error_out"), "V")}), so the ${q(vpk, "V")} peak goes beyond the output range ${q(vOmin, "V")} to ${q(vOmax, "V")}: the output clips. Keep the DC error below ${q(Math.max(0, roomSig - vpk), "V")} (lower-Vos part, better-matched resistors) or reduce the differential amplitude to ${q(Math.max(0, (roomSig - eDc) / gd), "V")} peak.`,
+      }),
+    );
+  }
   b.result("r_in_diff", "Differential input resistance", "Rin,d", 2 * r1, "Ω", O);
   b.result("r_in_plus", "Input resistance at V2", "Rin,2", r1 + r2, "Ω", O);
 
@@ -289,6 +307,7 @@ export function computeDifference(input: DifferenceInput): CalcOutput {
     "The source resistances of V1 and V2 are negligible against R1 and R1 + R2 (an unequal source resistance unbalances the bridge and lowers the CMRR).",
     "The Vref pin is driven from a low impedance (any resistance there adds to R4).",
     "The op-amp CMRR entered is its data-sheet minimum and adds to the resistor term with the same sign (worst case).",
+    "The output rests at Vref plus the DC error (1 + Gd)·Vos + R2·Ios and the common-mode error, all at 25 °C and their worst-case signs; drift over temperature is not included.",
     "Output current: the load plus the current through R2, which carries the common-mode input as (vcm − Vref)/(R1 + R2) even with no differential signal; both at their worst-case signs.",
   );
   return b.build();
@@ -300,7 +319,7 @@ export const differenceAmplifier: CalcType<typeof differenceSchema> = {
   pack: "amplifier",
   title: "Difference amplifier",
   summary: "Designs a four-resistor difference amplifier and checks gain, worst-case CMRR from resistor tolerance, input common-mode range and output swing.",
-  version: "1.1.0",
+  version: "1.2.0",
   schema: differenceSchema,
   fields,
   defaults,

@@ -4,6 +4,7 @@
 import { describe, expect, it } from "vitest";
 import { differenceAmplifier, cornerCmrr } from "@/lib/calc/amplifier/difference";
 import type { CalcType, RawInputs } from "@/lib/calc/core/types";
+import { demoOpAmp, toRawPart } from "@/lib/calc/core/demo-parts";
 import { expectWellFormed } from "../../unit/calc/core/arbitraries";
 import { rel, run } from "./helpers";
 
@@ -56,6 +57,23 @@ describe("difference amplifier", () => {
     // Common mode is measured from Vref: Vref = 5 V with Vcm 0…5 V leaves |vcm − Vref| ≤ 5 V.
     const shifted = run(T, { gain: "10", series: "E24", r1Target: "10k", rLoad: "10k", vdPeak: "0.2", vcmMin: "0", vcmMax: "5", vRef: "5", supply: "single", vPos: "12" });
     expect(rel(shifted.v("i_out_peak"), 2 / 10e3 + (0.2 * 10.5) / 110e3 + 5 / 110e3)).toBeLessThan(1e-12);
+  });
+
+  it("DC output error of the balanced bridge, (1 + R2/R1)·Vos + R2·Ios (Franco 4th ed., ch. 5), and the swing it uses up", () => {
+    // Franco: Eo = NG·[Vos + (Rp − Rn)·IB + (Rp + Rn)·IOS/2] with Rp = Rn = R1 ∥ R2, so the IB term
+    // cancels and NG·(R1 ∥ R2) = R2. LW-OA610 (Vos 25 µV, IOS 1 nA), R1 = 10 kΩ, R2 = 100 kΩ:
+    // 11 × 25 µV + 100 kΩ × 1 nA = 275 µV + 100 µV = 375 µV (hand calculation).
+    const { v } = run(T, { ...base, tolerance: "0.1" });
+    expect(v("e_offset")).toBeCloseTo(375e-6, 15);
+    expect(v("e_dc")).toBeCloseTo(375e-6 + v("cm_error_out"), 15);
+    // ×1000 with a 5 mV, 200 nA part: R2 = 10 MΩ, Eo = 1001 × 5 mV + 10 MΩ × 200 nA = 7.005 V
+    // before the common-mode error; with ±13 V of output range a 10 V peak no longer fits.
+    const p = toRawPart(demoOpAmp("LW-OA110"));
+    const big = run(T, { ...base, tolerance: "0.1", gain: "1000", vdPeak: "10m", opamp: p });
+    expect(big.v("e_offset")).toBeCloseTo(7.005, 9);
+    expect(big.check("swing.high").severity).toBe("pass");
+    expect(big.check("swing.dc").severity).toBe("fail");
+    expect(big.check("swing.dc").message).toMatch(/offset 7\.005 V/);
   });
 
   it("unachievable: 80 dB CMRR from 1 % resistors fails with a sentence; common mode beyond the rails fails", () => {

@@ -28,6 +28,7 @@ describe("class A", () => {
     const cases: Array<[string, number]> = [["4", 50], ["2", 12.5], [String(2 / 3), 1.3889]];
     for (const [vp, eta] of cases) {
       const { v } = run(T, { ...common, vPeak: vp });
+      // % points: the book's 1.39 % is 25/18 = 1.38889 %, taken here to 4 decimals (1e-5 off).
       expect(Math.abs(v("efficiency") - eta)).toBeLessThan(0.001);
     }
     expect(run(T, { ...common, vPeak: "1" }).v("r_load_reflected")).toBeCloseTo(72, 12); // n²·RL

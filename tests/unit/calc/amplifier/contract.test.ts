@@ -15,7 +15,7 @@ const types = [...amplifierTypes, ...referenceTypes];
 /** Engine version of each type; bump here together with the type's `version`. */
 const VERSIONS: Record<string, string> = {
   "amplifier.gain-stage": "1.2.0",
-  "amplifier.difference": "1.1.0",
+  "amplifier.difference": "1.2.0",
   "amplifier.power-stage": "1.0.1",
   "reference.shunt": "1.0.1",
   "reference.adjustable": "1.0.1",
