@@ -186,7 +186,8 @@ describe("physical invariants over the whole schema (not only the defaults)", ()
     const seen = new Map<string, Set<string>>();
     fc.assert(
       fc.property(gainStageArb, (raw) => {
-        const out = gainStage.compute(gainStageSchema.parse(raw));
+        const input = gainStageSchema.parse(raw);
+        const out = gainStage.compute(input);
         const v = results(out);
         // Resistor tolerance can only widen the gain around its nominal (Franco ch. 1 algebra).
         expect(v("gain_min")).toBeLessThanOrEqual(Math.abs(v("gain_ideal")) * (1 + EPS));
@@ -199,10 +200,10 @@ describe("physical invariants over the whole schema (not only the defaults)", ()
         // A single-pole noise bandwidth never exceeds π/2 of its −3 dB frequency (Franco ch. 7).
         expect(v("nbw")).toBeLessThanOrEqual((Math.PI / 2) * v("f3db") * (1 + EPS));
         // An output cannot pass its rails; the peak current is at least the resistive one.
-        const vNeg = raw.supply === "split" ? (raw.vNeg ?? 0) : 0;
-        expect(v("v_out_max")).toBeLessThanOrEqual(raw.vPos);
+        const vNeg = input.supply === "split" ? (input.vNeg ?? 0) : 0;
+        expect(v("v_out_max")).toBeLessThanOrEqual(input.vPos);
         expect(v("v_out_min")).toBeGreaterThanOrEqual(vNeg);
-        expect(v("i_out_peak")).toBeGreaterThanOrEqual((raw.voutPeak / v("r_load_total")) * (1 - EPS));
+        expect(v("i_out_peak")).toBeGreaterThanOrEqual((input.voutPeak / v("r_load_total")) * (1 - EPS));
         if (out.results.some((r) => r.key === "phase_margin")) {
           expect(v("phase_margin")).toBeGreaterThan(0);
           expect(v("phase_margin")).toBeLessThanOrEqual(180);
