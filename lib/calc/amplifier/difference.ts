@@ -212,11 +212,11 @@ export function computeDifference(input: DifferenceInput): CalcOutput {
   b.check(
     checkAtMost("icmr.high", "Op-amp input common-mode, positive", cmHi - input.vRef, lim.hi - input.vRef, {
       pass: () => `The op-amp inputs reach ${q(cmHi, "V")} at most, below the limit ${q(lim.hi, "V")}.`,
-      fail: () => `The op-amp inputs reach ${q(cmHi, "V")}, above the common-mode limit ${q(lim.hi, "V")}: the stage saturates. Raise V+, lower the input common-mode range, or attenuate with a lower gain (R4/R3 divides the common mode by 1 + Gd).`,
+      fail: () => `The op-amp inputs reach ${q(cmHi, "V")}, ${q(cmHi - lim.hi, "V")} above the common-mode limit ${q(lim.hi, "V")}: the stage saturates. Raise V+ by at least ${q(cmHi - lim.hi, "V")}, keep the input common mode below ${q((lim.hi * (1 + gd) - input.vRef) / gd - input.vdPeak / 2, "V")}, or attenuate with a lower gain (the + input sees Gd/(1 + Gd) of the common mode).`,
     }),
     checkAtLeast("icmr.low", "Op-amp input common-mode, negative", cmLo - input.vRef, lim.lo - input.vRef, {
       pass: () => `The op-amp inputs go down to ${q(cmLo, "V")}, above the limit ${q(lim.lo, "V")}.`,
-      fail: () => `The op-amp inputs go down to ${q(cmLo, "V")}, below the common-mode limit ${q(lim.lo, "V")}: the stage saturates. Lower V−, raise Vref, or choose a part whose input range includes the negative rail.`,
+      fail: () => `The op-amp inputs go down to ${q(cmLo, "V")}, ${q(lim.lo - cmLo, "V")} below the common-mode limit ${q(lim.lo, "V")}: the stage saturates. Lower V− by at least ${q(lim.lo - cmLo, "V")}, keep the input common mode above ${q((lim.lo * (1 + gd) - input.vRef) / gd + input.vdPeak / 2, "V")}, raise Vref, or choose a part whose input range includes the negative rail.`,
     }),
   );
 
@@ -319,7 +319,7 @@ export const differenceAmplifier: CalcType<typeof differenceSchema> = {
   pack: "amplifier",
   title: "Difference amplifier",
   summary: "Designs a four-resistor difference amplifier and checks gain, worst-case CMRR from resistor tolerance, input common-mode range and output swing.",
-  version: "1.2.0",
+  version: "1.2.1",
   schema: differenceSchema,
   fields,
   defaults,

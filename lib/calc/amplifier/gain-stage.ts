@@ -311,10 +311,39 @@ export function computeGainStage(input: GainStageInput): CalcOutput {
   const t0 = f.value("loop_gain_dc");
   const ng = f.value("noise_gain");
   const gIdeal = f.value("gain_ideal");
+  // The resistor tolerance that would just meet an error limit with this pair (the same
+  // worst-case expressions as gain_max / gain_min, solved by bisection; the error grows with tol).
+  const toleranceFor = (limit: number): number => {
+    const loopF = 1 / (1 + 1 / t0);
+    const gt = Math.abs(gainTarget);
+    const errAt = (t: number) => {
+      const hi = nonInv ? 1 + (rf * (1 + t)) / (rg * (1 - t)) : (rf * (1 + t)) / (rg * (1 - t) + input.rSource);
+      const lo = nonInv ? 1 + (rf * (1 - t)) / (rg * (1 + t)) : (rf * (1 - t)) / (rg * (1 + t) + input.rSource);
+      return Math.max(Math.abs((hi * loopF) / gt - 1), Math.abs((lo * loopF) / gt - 1));
+    };
+    if (!(errAt(0) < limit)) return NaN;
+    let a = 0;
+    let c = 0.2;
+    if (errAt(c) <= limit) return c;
+    for (let i = 0; i < 60; i++) {
+      const m = (a + c) / 2;
+      if (errAt(m) <= limit) a = m;
+      else c = m;
+    }
+    return a;
+  };
   b.check(
     checkAtMost("gain.error", "Gain error", gainErr, input.gainErrorMax, {
       pass: () => `Worst-case DC gain error ${q(gainErr, "%", { scale: "percent" })} is within the allowed ${q(input.gainErrorMax, "%", { scale: "percent" })} (${series}, ${q(tol, "%", { scale: "percent" })} resistors).`,
-      fail: () => `Worst-case DC gain error ${q(gainErr, "%", { scale: "percent" })} exceeds the allowed ${q(input.gainErrorMax, "%", { scale: "percent" })}; use tighter resistors (tolerance ${q(tol, "%", { scale: "percent" })} now), a denser series than ${series}${t0 < 1000 ? ", or an op-amp with more open-loop gain (loop gain is only " + formatNumber(t0, 3) + ")" : ""}.`,
+      fail: () => {
+        const head = `Worst-case DC gain error ${q(gainErr, "%", { scale: "percent" })} exceeds the allowed ${q(input.gainErrorMax, "%", { scale: "percent" })}`;
+        const loop = t0 < 1000 ? `, or an op-amp with more open-loop gain (loop gain is only ${formatNumber(t0, 3)})` : "";
+        const tNeed = follower ? NaN : toleranceFor(input.gainErrorMax);
+        if (Number.isFinite(tNeed) && tNeed > 0) {
+          return `${head}; resistors of ${q(tNeed, "%", { scale: "percent", digits: 2 })} or better would meet it with this pair (${q(tol, "%", { scale: "percent" })} now)${loop}.`;
+        }
+        return `${head} even with exact resistors: the preferred-value error is ${q(f.value("gain_snap_error"), "%", { scale: "percent" })} and the loop gain ${formatNumber(t0, 3)}; choose a denser series than ${series} or another feedback resistor target${loop}.`;
+      },
     }),
   );
   if (!(t0 > 1)) {
@@ -393,11 +422,11 @@ export function computeGainStage(input: GainStageInput): CalcOutput {
   b.check(
     checkAtMost("icmr.high", "Input common-mode, positive", cmHi - vRef, cmMax - vRef, {
       pass: () => `${cmWhat}, below the common-mode limit ${q(cmMax, "V")}.`,
-      fail: () => `${cmWhat}, above the common-mode limit ${q(cmMax, "V")} (V+ − ${q(p.vicmPos, "V")}): the input stage saturates. ${nonInv ? "Use the inverting configuration, " : ""}${split ? "raise V+" : "lower Vbias or raise V+"} or choose a part whose input range includes the positive rail.`,
+      fail: () => `${cmWhat}, ${q(cmHi - cmMax, "V")} above the common-mode limit ${q(cmMax, "V")} (V+ ${q(vPos, "V")} less ${q(p.vicmPos, "V")} headroom): the input stage saturates. ${nonInv ? "Use the inverting configuration, " : ""}${split ? `raise V+ by at least ${q(cmHi - cmMax, "V")}` : `lower Vbias or raise V+ by at least ${q(cmHi - cmMax, "V")}`} or choose a part whose input range includes the positive rail.`,
     }),
     checkAtLeast("icmr.low", "Input common-mode, negative", cmLo - vRef, cmMin - vRef, {
       pass: () => `${cmWhat}, above the common-mode limit ${q(cmMin, "V")}.`,
-      fail: () => `${cmWhat}, below the common-mode limit ${q(cmMin, "V")} (V− + ${q(p.vicmNeg, "V")}): the input stage saturates. ${split ? "Lower V−" : "Raise Vbias"} or choose a part whose input range includes the negative rail.`,
+      fail: () => `${cmWhat}, ${q(cmMin - cmLo, "V")} below the common-mode limit ${q(cmMin, "V")} (V− ${q(vNeg, "V")} plus ${q(p.vicmNeg, "V")} headroom): the input stage saturates. ${split ? "Lower V−" : "Raise Vbias"} by at least ${q(cmMin - cmLo, "V")} or choose a part whose input range includes the negative rail.`,
     }),
   );
 
@@ -446,7 +475,20 @@ export function computeGainStage(input: GainStageInput): CalcOutput {
   b.check(
     checkAtMost("dc.error", "DC output error", eWc, input.dcErrorMax, {
       pass: () => `Worst-case DC output error ${q(eWc, "V")} over ${q(input.tMin, "°C")} to ${q(input.tMax, "°C")} (RSS ${q(eRss, "V")}; ${q(e25, "V")} at 25 °C) is within the allowed ${q(input.dcErrorMax, "V")}; ${compNote}.`,
-      fail: () => `Worst-case DC output error ${q(eWc, "V")} over ${q(input.tMin, "°C")} to ${q(input.tMax, "°C")} (RSS ${q(eRss, "V")}) exceeds the allowed ${q(input.dcErrorMax, "V")}; ${compNote}. ${f.value("e_vos") > f.value("e_ib") + f.value("e_ios") ? "Offset voltage dominates: choose a lower-Vos or lower-drift part, or AC-couple the gain-setting resistor." : "Bias current dominates: add bias-current compensation, lower the resistances, or choose a part with lower Ib."}`,
+      fail: () => {
+        // Compare the terms as they are over temperature: offset and its drift against the bias
+        // currents after their rise.
+        const eOff = f.value("e_vos") + f.value("e_drift_vos");
+        const eBias = ibFactor * (f.value("e_ib") + f.value("e_ios"));
+        const head = `Worst-case DC output error ${q(eWc, "V")} over ${q(input.tMin, "°C")} to ${q(input.tMax, "°C")} (RSS ${q(eRss, "V")}) exceeds the allowed ${q(input.dcErrorMax, "V")}; ${compNote}. Offset and drift give ${q(eOff, "V")}, bias currents ${q(eBias, "V")}.`;
+        if (eOff >= eBias) {
+          const budget = (input.dcErrorMax - eBias) / ng;
+          return budget > 0
+            ? `${head} Offset dominates: a part with Vos + ΔVos/ΔT × ${q(f.value("dT"), "°C")} ≤ ${q(budget, "V")} (now ${q(p.vos + p.vosDrift * f.value("dT"), "V")}) would meet it, or AC-couple Rg so the DC gain is 1, or lower the gain.`
+            : `${head} Both need to fall: the bias-current terms alone use up the allowance; lower the resistances, add compensation and choose a lower-Vos part.`;
+        }
+        return `${head} Bias current dominates: ${compNote.startsWith("no bias") ? "add bias-current compensation (Rp = Rf‖Rg), " : ""}lower the resistances, or choose a part with lower Ib${input.ibModel === "doubling" ? " (it grows ×" + formatNumber(ibFactor, 3) + " by " + q(input.tMax, "°C") + ")" : ""}.`;
+      },
     }),
   );
 
@@ -483,7 +525,7 @@ export function computeGainStage(input: GainStageInput): CalcOutput {
     b.check(
       checkAtLeast("noise.snr", "Signal-to-noise ratio", snr, input.snrMin, {
         pass: () => `SNR ${q(snr, "dB")} at ${q(input.voutPeak, "V")} peak (output noise ${q(eno, "V")} rms, ${q(input.fNoiseLow, "Hz")} to the closed-loop pole) meets the required ${q(input.snrMin, "dB")}.`,
-        fail: () => `SNR ${q(snr, "dB")} at ${q(input.voutPeak, "V")} peak (output noise ${q(eno, "V")} rms) is below the required ${q(input.snrMin, "dB")}; ${f.value("eno_en") >= Math.max(f.value("eno_in"), f.value("eno_r")) ? "the op-amp's voltage noise dominates: choose a lower-en part or limit the bandwidth with a filter" : f.value("eno_r") >= f.value("eno_in") ? "resistor noise dominates: lower the resistances" : "current noise dominates: lower the resistances or choose a part with lower in"}.`,
+        fail: () => `SNR ${q(snr, "dB")} at ${q(input.voutPeak, "V")} peak (output noise ${q(eno, "V")} rms) is below the required ${q(input.snrMin, "dB")}, which needs output noise ≤ ${q(input.voutPeak / Math.SQRT2 / 10 ** (input.snrMin / 20), "V")} rms; ${f.value("eno_en") >= Math.max(f.value("eno_in"), f.value("eno_r")) ? "the op-amp's voltage noise dominates: choose a lower-en part or limit the bandwidth with a filter" : f.value("eno_r") >= f.value("eno_in") ? "resistor noise dominates: lower the resistances" : "current noise dominates: lower the resistances or choose a part with lower in"}.`,
       }),
     );
   } else {
@@ -643,7 +685,7 @@ export const gainStage: CalcType<typeof gainStageSchema> = {
   pack: "amplifier",
   title: "Gain stage (inverting / non-inverting)",
   summary: "Designs an op-amp gain stage from preferred resistors and checks gain error, bandwidth, slew rate, swing, common-mode range, DC error, noise and stability.",
-  version: "1.2.0",
+  version: "1.2.1",
   schema: gainStageSchema,
   fields,
   defaults,

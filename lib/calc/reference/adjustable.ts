@@ -151,10 +151,38 @@ export function computeAdjustable(input: AdjustableInput): CalcOutput {
   const errRss = b.formula({ key: "error_rss", label: "Output error, RSS (plus the preferred-value error)", symbol: "εrss", expr: "abs(error_design) + sqrt(s_r1^2 + s_r2^2 + s_ref^2 + s_iadj^2)", unit: "%", scale: "percent", reference: REF.rss }, {}, E);
 
   const pct = (v: number) => q(v, "%", { scale: "percent" });
+  // Worst-case error of this pair at resistor tolerance t (the vout_max / vout_min expressions),
+  // and the tolerance that just meets a limit (bisection; the error grows with t).
+  const drift = f.value("drift");
+  const errorAt = (t: number) => {
+    const hi = r.vNom * (1 + r.accuracy) * (1 + drift) * (1 + (r1 * (1 + t)) / (r2 * (1 - t))) + r.iAdj * r1 * (1 + t);
+    const lo = r.vNom * (1 - r.accuracy) * (1 - drift) * (1 + (r1 * (1 - t)) / (r2 * (1 + t)));
+    return Math.max(hi / input.vOutTarget - 1, 1 - lo / input.vOutTarget);
+  };
+  const toleranceFor = (limit: number): number => {
+    if (!(errorAt(0) < limit)) return NaN;
+    let a = 0;
+    let c = 0.2;
+    if (errorAt(c) <= limit) return c;
+    for (let i = 0; i < 60; i++) {
+      const m = (a + c) / 2;
+      if (errorAt(m) <= limit) a = m;
+      else c = m;
+    }
+    return a;
+  };
   b.check(
     checkAtMost("error.wc", "Output error", errWc, input.errorMax, {
       pass: () => `Worst-case output ${q(vMin, "V")} to ${q(vMax, "V")} (error ${pct(errWc)}, RSS ${pct(errRss)}) is within the allowed ${pct(input.errorMax)} of ${q(input.vOutTarget, "V")}.`,
-      fail: () => `Worst-case output ${q(vMin, "V")} to ${q(vMax, "V")} (error ${pct(errWc)}, RSS ${pct(errRss)}) exceeds the allowed ${pct(input.errorMax)} of ${q(input.vOutTarget, "V")}; ${r.accuracy + f.value("drift") > tol * 2 ? "the reference's own accuracy and drift dominate: choose a better grade or trim" : "use tighter resistors"}.`,
+      fail: () => {
+        const head = `Worst-case output ${q(vMin, "V")} to ${q(vMax, "V")} (error ${pct(errWc)}, RSS ${pct(errRss)}) exceeds the allowed ${pct(input.errorMax)} of ${q(input.vOutTarget, "V")}`;
+        const tNeed = toleranceFor(input.errorMax);
+        const refPart = `the reference's accuracy and drift alone give ±${pct(r.accuracy + f.value("drift"))}`;
+        if (Number.isFinite(tNeed)) {
+          return `${head}; ${refPart}, so resistors of ${q(tNeed, "%", { scale: "percent", digits: 2 })} or better would meet it (${pct(tol)} now).`;
+        }
+        return `${head}; ${refPart}, and with exact resistors the error would still be ${pct(errorAt(0))}: the reference's own accuracy and drift dominate — choose a better grade, trim the output, or narrow the temperature range.`;
+      },
     }),
   );
   const iDiv = f.value("i_divider");
@@ -212,7 +240,7 @@ export const adjustableReference: CalcType<typeof adjustableSchema> = {
   pack: "reference",
   title: "Adjustable reference divider",
   summary: "Chooses the preferred-value divider of an adjustable shunt reference and states its output error, worst case and RSS.",
-  version: "1.0.1",
+  version: "1.0.2",
   schema: adjustableSchema,
   fields,
   defaults,

@@ -152,7 +152,7 @@ export function computeShunt(input: ShuntInput): CalcOutput {
     }),
     checkAtMost("current.max", "Maximum reference current", izHi, r.iMax, {
       pass: () => `At the highest supply and the smallest load the reference carries ${q(izHi, "A")}, within its maximum ${q(r.iMax, "A")}.`,
-      fail: () => `At the highest supply and the smallest load the reference carries ${q(izHi, "A")}, above its maximum ${q(r.iMax, "A")}. The supply range ${q(input.vSupplyMin, "V")} to ${q(input.vSupplyMax, "V")} with a load swing of ${q(input.iLoadMax - input.iLoadMin, "A")} is too wide for a resistor feed: pre-regulate the supply, feed the reference from a current source, or use a series reference.`,
+      fail: () => `At the highest supply and the smallest load the reference carries ${q(izHi, "A")}, above its maximum ${q(r.iMax, "A")}. With R = ${q(rSel, "Ω")} the supply may rise only to ${q(rSel * (1 - tol) * (r.iMax + input.iLoadMin) + f.value("vz_min"), "V")}; the range ${q(input.vSupplyMin, "V")} to ${q(input.vSupplyMax, "V")} with a load swing of ${q(input.iLoadMax - input.iLoadMin, "A")} is too wide for a resistor feed: pre-regulate the supply, keep a minimum load, feed the reference from a current source, or use a series reference.`,
     }, { warnBelow: 0.1 }),
     checkAtMost("power.ref", "Reference dissipation", pz, r.pMax, {
       pass: () => `The reference dissipates at most ${q(pz, "W")}, within its ${q(r.pMax, "W")} rating.`,
@@ -209,7 +209,7 @@ export const shuntReference: CalcType<typeof shuntSchema> = {
   pack: "reference",
   title: "Shunt / Zener reference bias resistor",
   summary: "Chooses the bias resistor of a shunt or Zener reference over the supply and load range and checks its current and dissipation limits.",
-  version: "1.0.1",
+  version: "1.0.2",
   schema: shuntSchema,
   fields,
   defaults,

@@ -330,6 +330,42 @@ describe("output swing, common-mode range and supply", () => {
   });
 });
 
+describe("fail sentences say what to change, with numbers", () => {
+  it("gain error: the resistor tolerance that would meet the limit (hand calculation, shown here)", () => {
+    // Defaults: G = 1 + 10.2k/1.13k = 10.02655; T0 = 31 000 → L = 1/(1 + 1/T0) = 0.99996775.
+    // Meeting 1 % needs G_max·L ≤ 10.1: (1 + t)/(1 − t) = (10.1/L − 1)/9.02655 = 1.008172, so
+    // t = 0.008172/2.008172 = 0.4069 % → printed "0.41 %" (2 figures).
+    const r = run(T, { gainErrorMax: "1" });
+    expect(r.check("gain.error").severity).toBe("fail");
+    expect(r.check("gain.error").message).toMatch(/resistors of 0\.41 % or better would meet it with this pair \(1 % now\)/);
+    // Fed back, the suggestion passes (0.4 %) and anything clearly above it fails (0.42 %).
+    expect(run(T, { gainErrorMax: "1", tolerance: "0.4" }).check("gain.error").severity).toBe("pass");
+    expect(run(T, { gainErrorMax: "1", tolerance: "0.42" }).check("gain.error").severity).toBe("fail");
+    // Below the preferred-value error (+0.2655 %) no tolerance helps: the sentence says so.
+    expect(run(T, { gainErrorMax: "0.1" }).check("gain.error").message).toMatch(/even with exact resistors: the preferred-value error is 0\.2655 %/);
+  });
+
+  it("DC error: the offset budget a part must meet (hand calculation, shown here)", () => {
+    // Defaults (LW-OA320, NG = 10.0265, Rbias 50 kΩ, Rn = 10.2k ∥ 1.13k = 1017.3 Ω, FET input
+    // doubling to 85 °C: ×64): bias terms 64 × NG × [48 982.7 Ω × 10 pA + 25 508.6 Ω × 5 pA]
+    // = 396.2 µV; offset budget (10 mV − 396.2 µV)/NG = 957.8 µV against 1.5 mV + 2 µV/°C × 65 °C.
+    const r = run(T, { dcErrorMax: "10m" });
+    expect(r.check("dc.error").message).toMatch(/bias currents 396\.2 µV\. Offset dominates: a part with Vos \+ ΔVos\/ΔT × 65 °C ≤ 957\.8 µV \(now 1\.63 mV\)/);
+  });
+
+  it("common mode: how far beyond the limit, and the supply change that fixes it", () => {
+    // Follower at Vbias 4.3 V with 2 V peak: the + input reaches 6.3 V; LW-OA320 on 5 V allows
+    // 5 V + 0.1 V = 5.1 V, so 1.2 V too high (hand calculation).
+    const r = run(T, { gain: "1", vBias: "4.3" });
+    expect(r.check("icmr.high").message).toMatch(/1\.2 V above the common-mode limit 5\.1 V \(V\+ 5 V less −100 mV headroom\).*raise V\+ by at least 1\.2 V/);
+  });
+
+  it("SNR: the output noise the requirement allows", () => {
+    // 2 V peak = 1.4142 V rms; 90 dB → 1.4142 V / 31 623 = 44.72 µV rms (definition of SNR).
+    expect(run(T, { snrMin: "90" }).check("noise.snr").message).toMatch(/needs output noise ≤ 44\.72 µV rms/);
+  });
+});
+
 describe("unachievable specifications give failing checks with sentences, never NaN", () => {
   it("gain beyond what GBW allows at the frequency", () => {
     // NG ≈ 1000 with GBW 1 MHz gives ~1 kHz (Franco ch. 6); 100 kHz is out of reach. The sentence

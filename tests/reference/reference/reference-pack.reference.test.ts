@@ -70,6 +70,9 @@ describe("reference.shunt", () => {
     expectWellFormed(low.out);
     const wide = run(SHUNT, { vSupplyMin: "3", vSupplyMax: "60", iLoadMax: "5m" });
     expect(wide.check("current.max").severity).toBe("fail");
+    // The sentence gives the highest supply this R allows (hand calculation): R = 91 Ω at −1 %,
+    // Iz,max 15 mA, IL,min 0, Vz,min 2.4875 V → 90.09 Ω × 15 mA + 2.4875 V = 3.839 V.
+    expect(wide.check("current.max").message).toMatch(/With R = 91 Ω the supply may rise only to 3\.839 V/);
     expect(wide.out.cautions.join(" ")).toMatch(/hazardous/);
     expectWellFormed(wide.out);
   });
@@ -135,6 +138,20 @@ describe("reference.adjustable", () => {
     const tight = run(ADJ, { errorMax: "0.1" });
     expect(tight.check("error.wc").severity).toBe("fail");
     expect(tight.check("error.wc").message).toMatch(/accuracy and drift dominate/);
+    // Between the reference-only error (1.225 %, hand-summed below) and the 0.1 % design's 1.374 %
+    // the sentence names a resistor tolerance; fed back, it passes.
+    // Reference-only, exact resistors: high 1.24 × 1.005 × 1.00625 × (1 + R1/R2) + Iadj·R1 and low
+    // 1.24 × 0.995 × 0.99375 × (1 + R1/R2), against 5 V; the low side is the larger, 1.2255 %.
+    const { v } = run(ADJ, {});
+    const hiOnly = (1.24 * 1.005 * 1.00625 * (1 + v("r1") / v("r2")) + 0.3e-6 * v("r1")) / 5 - 1;
+    const loOnly = 1 - (1.24 * 0.995 * 0.99375 * (1 + v("r1") / v("r2"))) / 5;
+    expect(Math.max(hiOnly, loOnly)).toBeCloseTo(0.012255, 5);
+    expect(tight.check("error.wc").message).toMatch(/with exact resistors the error would still be 1\.225 %/);
+    const mid = run(ADJ, { errorMax: "1.3" });
+    const m = /resistors of ([\d.]+) % or better would meet it \(0\.1 % now\)/.exec(mid.check("error.wc").message);
+    expect(m).not.toBeNull();
+    expect(run(ADJ, { errorMax: "1.3", tolerance: m![1] }).check("error.wc").severity).toBe("pass");
+    expect(run(ADJ, { errorMax: "1.3", tolerance: String(Number(m![1]) * 1.2) }).check("error.wc").severity).toBe("fail");
     expectWellFormed(tight.out);
   });
 });

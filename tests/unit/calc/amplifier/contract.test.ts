@@ -14,11 +14,11 @@ const types = [...amplifierTypes, ...referenceTypes];
 
 /** Engine version of each type; bump here together with the type's `version`. */
 const VERSIONS: Record<string, string> = {
-  "amplifier.gain-stage": "1.2.0",
-  "amplifier.difference": "1.2.0",
+  "amplifier.gain-stage": "1.2.1",
+  "amplifier.difference": "1.2.1",
   "amplifier.power-stage": "1.0.1",
-  "reference.shunt": "1.0.1",
-  "reference.adjustable": "1.0.1",
+  "reference.shunt": "1.0.2",
+  "reference.adjustable": "1.0.2",
   "reference.adc-budget": "1.0.1",
 };
 
