@@ -123,6 +123,16 @@ describe("DC output error", () => {
     expect(v("e_ib")).toBeCloseTo(0, 15);
     expect(v("e_ios")).toBeCloseTo((10 * 540 * 10e-9) / 2, 12); // 27 µV
   });
+  it("drift counts from 25 °C, where Vos is specified, whether or not the range crosses it (hand calculation)", () => {
+    // ΔT = largest excursion from 25 °C: 50…85 °C → 60 °C; −55…−10 °C → 80 °C; 0…70 °C → 45 °C.
+    // NG·ΔVos/ΔT·ΔT = 10 × 5 µV/°C × ΔT.
+    expect(run(T, { ...base, tMin: "50", tMax: "85" }).v("e_drift_vos")).toBeCloseTo(10 * 5e-6 * 60, 15);
+    expect(run(T, { ...base, tMin: "-55", tMax: "-10" }).v("e_drift_vos")).toBeCloseTo(10 * 5e-6 * 80, 15);
+    expect(run(T, { ...base, tMin: "0", tMax: "70" }).v("e_drift_vos")).toBeCloseTo(10 * 5e-6 * 45, 15);
+    // A FET input's bias current only grows above 25 °C: a range entirely below it adds nothing.
+    expect(run(T, { ...base, ibModel: "doubling", tMin: "-55", tMax: "-10" }).v("e_drift_ib")).toBe(0);
+  });
+
   it("FET-input bias current doubling every 10 °C (common practice, no source)", () => {
     const { v } = run(T, { ...base, ibModel: "doubling", tMax: "85" });
     // 60 °C above 25 °C → ×2^6 = 64: the bias terms grow by 63× their 25 °C value.
