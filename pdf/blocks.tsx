@@ -18,7 +18,8 @@ import { LinePlotChart, axisTitle, lineAxisUnits, seriesStyle } from "./plots/Li
 import { HistogramChart, histogramAxisUnit } from "./plots/HistogramChart";
 import { LevelsChart, levelsAxisUnit } from "./plots/LevelsChart";
 import { estimateTextWidth } from "./plots/canvas";
-import { formatMargin, formatTolerance, statusLabel } from "./text";
+import { formatMargin, formatTolerance, looksNumeric, statusLabel } from "./text";
+import { textWidth } from "./fonts";
 
 /** Longest paragraph piece printed as one block (longer paragraphs break at sentence ends). */
 const MAX_PARAGRAPH_CHARS = 1400;
@@ -218,16 +219,61 @@ function resultsTable(rows: ReportResult[]): Block[] {
   return tableBlocks("results", columns, groupRows(rows, (r) => r.group));
 }
 
+/** Cell padding left + right in tables, pt. */
+const CELL_PAD = 8;
+/** Body font sizes tried for a free table, largest first, until its columns fit the page. */
+const FREE_TABLE_SIZES = [8.2, 7.6, 7.0, 6.4];
+
+/**
+ * Column widths of a free table: every column at least as wide as its longest word (so nothing
+ * runs out of its cell), the rest of the page width shared in proportion to how much wider each
+ * column would like to be (its longest cell on one line). Wide tables get a smaller font.
+ * @returns widths in pt and the body font size
+ */
+export function freeTableLayout(table: ResultTable, width = contentWidth): { widths: number[]; fontSize: number } {
+  const words = (s: string) => s.split(/\s+/).filter(Boolean);
+  const measure = (size: number) =>
+    table.columns.map((c) => {
+      const cells = table.rows.map((r) => (r[c.key] ?? "").replace(/_/g, ""));
+      const head = c.label.replace(/_/g, "");
+      const w = (t: string, sz: number, weight = 400) => textWidth(t, sz, { weight, tabular: looksNumeric(t) });
+      const min = Math.max(...words(head).map((x) => w(x, 7.2, 600)), ...cells.flatMap((t) => words(t).map((x) => w(x, size))), 6) + CELL_PAD + 1;
+      const pref = Math.max(w(head, 7.2, 600), ...cells.map((t) => w(t, size)), 6) + CELL_PAD + 1;
+      return { min, pref: Math.max(pref, min) };
+    });
+  let fontSize = FREE_TABLE_SIZES[0];
+  let cols = measure(fontSize);
+  for (const size of FREE_TABLE_SIZES) {
+    fontSize = size;
+    cols = measure(size);
+    if (cols.reduce((a, c) => a + c.min, 0) <= width) break;
+  }
+  const minSum = cols.reduce((a, c) => a + c.min, 0);
+  const spare = Math.max(0, width - minSum);
+  const want = cols.reduce((a, c) => a + (c.pref - c.min), 0);
+  const widths = cols.map((c) => {
+    const share = want > 0 ? Math.min(c.pref - c.min, (spare * (c.pref - c.min)) / want) : 0;
+    return c.min + share;
+  });
+  // Whatever is still spare (all columns at their preferred width) goes to the widest column.
+  const left = width - widths.reduce((a, b) => a + b, 0);
+  if (left > 0) {
+    const widest = widths.indexOf(Math.max(...widths));
+    widths[widest] += left;
+  }
+  const scale = minSum > width ? width / minSum : 1;
+  return { widths: widths.map((w) => w * scale), fontSize };
+}
+
 function freeTable(table: ResultTable, spaceBefore: number): Block[] {
-  // Column widths in proportion to the longest text in each column, within limits.
-  const weights = table.columns.map((c) => Math.min(40, Math.max(c.label.length, ...table.rows.map((r) => (r[c.key] ?? "").length), 4)));
-  const total = weights.reduce((a, b) => a + b, 0);
+  const { widths, fontSize } = freeTableLayout(table);
   const columns: Column<Record<string, string>>[] = table.columns.map((c, i) => ({
     key: c.key,
     label: c.label,
-    width: (weights[i] / total) * contentWidth,
+    width: widths[i],
     align: c.align,
     rich: true,
+    style: fontSize === 8.2 ? undefined : { fontSize },
   }));
   return tableBlocks(`table:${table.id}`, columns, plainRows(table.rows), spaceBefore);
 }
@@ -417,7 +463,7 @@ export function reportBlocks(model: ReportModel): Block[] {
       0,
       { keepWithNext: true },
     );
-    const widest = Math.max(24, ...model.formulas.map((x) => estimateTextWidth(splitEquation(x.symbolic).lhs || x.symbol, 9.2)));
+    const widest = Math.max(24, ...model.formulas.map((x) => estimateTextWidth((splitEquation(x.symbolic).lhs || x.symbol).replace(/_/g, ""), 9.2)));
     const lhsWidth = Math.min(110, widest + 2);
     model.formulas.forEach((x, i) => f.add(formula(x, i + 1, lhsWidth), 0));
   }

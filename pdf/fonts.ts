@@ -7,6 +7,14 @@ import fs from "node:fs";
 import path from "node:path";
 import { Font } from "@react-pdf/renderer";
 
+/**
+ * OpenType features for all text. Inter's contextual lookups (calt, ccmp, mark …) cost shaping
+ * time and do nothing for our Latin and Greek text, so only kerning stays on.
+ */
+export const TEXT_FEATURES = { kern: true, calt: false, ccmp: false, locl: false, rlig: false, mark: false, mkmk: false, clig: false, liga: false, rclt: false, curs: false } as const;
+/** The same, with tabular (monospaced) digits for numbers in tables and results. */
+export const TABULAR_FEATURES = { ...TEXT_FEATURES, tnum: true } as const;
+
 /** Family names used by the styles. */
 export const FONT_SANS = "Inter";
 export const FONT_MONO = "IBM Plex Mono";
@@ -57,6 +65,50 @@ interface ShapedRun {
   positions: Array<Record<string, number>>;
 }
 type LayoutFn = (text: string, features?: unknown, script?: string, language?: string, direction?: string) => ShapedRun;
+interface FontkitFont {
+  layout: LayoutFn;
+  unitsPerEm: number;
+  __lwShapingMemo?: true;
+}
+
+/**
+ * Width of `text` set in Inter at `size` pt, from the font's own advances and kerning (the same
+ * shaping react-pdf does). Before the fonts are loaded (see startShapingCache) it falls back to
+ * an estimate of 0.56 em per character.
+ *
+ * @param text one line of text
+ * @param size font size, pt
+ * @param opts.weight 400, 500, 600 or 700; opts.tabular for tabular digits
+ * @returns width in pt
+ */
+export function textWidth(text: string, size: number, opts: { weight?: number; tabular?: boolean } = {}): number {
+  const source = Font.getFont({ fontFamily: FONT_SANS, fontWeight: opts.weight ?? 400 });
+  const font = source?.data as unknown as FontkitFont | null;
+  if (!font || !text) return text.length * size * 0.56;
+  const run = font.layout(text, opts.tabular ? TABULAR_FEATURES : TEXT_FEATURES, undefined, undefined, "ltr");
+  let advance = 0;
+  for (const p of run.positions) advance += p.xAdvance ?? 0;
+  return (advance * size) / font.unitsPerEm;
+}
+
+/**
+ * Gives back their code points to glyphs that lost them. fontkit keeps one glyph object per
+ * glyph id, and its code points are those of the first request; when a PDF subset pulls a glyph
+ * in first as a component of another glyph, the object is created with none, and every later
+ * report loses that character from its text layer (copy and paste, search, pdftotext) and
+ * miscounts string positions: seen with the tabular superscripts of "×10⁻²³". With the features
+ * the report uses (kerning and tabular digits: single substitutions only) every character gives
+ * exactly one glyph, so the run tells which character each glyph stands for.
+ */
+function repairCodePoints(text: string, run: ShapedRun): void {
+  const glyphs = run.glyphs as Array<{ codePoints?: number[] }>;
+  if (!glyphs.some((g) => !g.codePoints || g.codePoints.length === 0)) return;
+  const cps = Array.from(text, (ch) => ch.codePointAt(0) ?? 0);
+  if (cps.length !== glyphs.length) return;
+  glyphs.forEach((g, i) => {
+    if (!g.codePoints || g.codePoints.length === 0) g.codePoints = [cps[i]];
+  });
+}
 
 /** Shaped runs of the current report, per font (see {@link startShapingCache}). */
 const shapingCaches = new Map<object, Map<string, ShapedRun>>();
@@ -73,7 +125,7 @@ export async function startShapingCache(): Promise<void> {
   for (const v of VARIANTS) {
     const source = Font.getFont(v);
     await source.load();
-    const font = source.data as unknown as { layout: LayoutFn; __lwShapingMemo?: true } | null;
+    const font = source.data as unknown as FontkitFont | null;
     if (!font) continue;
     if (!font.__lwShapingMemo) {
       const original = font.layout.bind(font);
@@ -84,6 +136,7 @@ export async function startShapingCache(): Promise<void> {
         let run = cache.get(key);
         if (!run) {
           run = original(text, features, script, language, direction);
+          repairCodePoints(text, run);
           if (cache.size >= MAX_CACHED_RUNS) cache.clear();
           cache.set(key, run);
         }

@@ -5,7 +5,7 @@
  */
 import { StyleSheet, type Styles } from "@react-pdf/renderer";
 import type { Severity } from "../lib/calc/core/types";
-import { FONT_MONO, FONT_SANS } from "./fonts";
+import { FONT_MONO, FONT_SANS, TABULAR_FEATURES, TEXT_FEATURES } from "./fonts";
 
 /** One react-pdf style object. */
 export type PdfStyle = Styles[string];
@@ -41,15 +41,11 @@ export const page = {
 /** Width of the text block. */
 export const contentWidth = page.width - 2 * page.marginX;
 
-/**
- * OpenType features for all text. Inter's contextual lookups (calt, ccmp, mark …) triple the
- * shaping time and do nothing for our Latin/Greek text, so only kerning stays on.
- */
-export const TEXT_FEATURES = { kern: process.env.LW_NOKERN ? false : true, calt: false, ccmp: false, locl: false, rlig: false, mark: false, mkmk: false, clig: false, liga: false, rclt: false, curs: false } as const;
-const TNUM = { ...TEXT_FEATURES, tnum: true };
+const TNUM = TABULAR_FEATURES;
 
-/** Tabular digits, with the same feature set. */
-export const TABULAR = TNUM;
+/** Tabular digits, with the same feature set as all text. */
+export const TABULAR = TABULAR_FEATURES;
+export { TEXT_FEATURES };
 
 export const s = StyleSheet.create({
   page: {

@@ -53,6 +53,8 @@ export async function measureBlocks(blocks: Block[]): Promise<number[]> {
 
 /** Blocks, their page assignment and the page count, for a model (no PDF yet). */
 export async function layoutReport(model: ReportModel): Promise<{ blocks: Block[]; pages: PageItem[][] }> {
+  // Loads the fonts (block building measures text with them) and starts this report's shaping memo.
+  await startShapingCache();
   const blocks = reportBlocks(model);
   const heights = await measureBlocks(blocks);
   const pages = paginateBlocks(
@@ -70,7 +72,6 @@ export async function layoutReport(model: ReportModel): Promise<{ blocks: Block[
  */
 export async function renderReportPdf(model: ReportModel): Promise<Buffer> {
   const valid = reportModelSchema.parse(model);
-  await startShapingCache();
   const { blocks, pages } = await layoutReport(valid);
   return renderToBuffer(asDocumentElement(createElement(ReportPagesDocument, { model: valid, blocks, pages })));
 }

@@ -6,6 +6,7 @@ import type { ReactNode } from "react";
 import { Svg, Text, View } from "@react-pdf/renderer";
 import { colors, TABULAR } from "../theme";
 import { looksNumeric } from "../text";
+import { textWidth } from "../fonts";
 
 /** A text label placed on the canvas, in points from the canvas's top-left corner. */
 export interface CanvasLabel {
@@ -25,9 +26,9 @@ export interface CanvasLabel {
   numeric?: boolean;
 }
 
-/** Width a label of `text` takes at `size` pt, estimated for Inter (average advance ≈ 0.56 em). */
+/** Width a label of `text` takes at `size` pt (Inter's own advances once the fonts are loaded). */
 export function estimateTextWidth(text: string, size: number): number {
-  return text.length * size * 0.56;
+  return textWidth(text, size, { tabular: looksNumeric(text) });
 }
 
 /** Rounds a coordinate for path data (0.01 pt is far below print resolution). */
@@ -45,7 +46,12 @@ export function PlotCanvas(props: { width: number; height: number; labels: Canva
       {labels.map((l, i) => {
         const size = l.size ?? 6.6;
         const w = l.width ?? 80;
-        const left = l.align === "right" ? l.x - w : l.align === "left" ? l.x : l.x - w / 2;
+        let left = l.align === "right" ? l.x - w : l.align === "left" ? l.x : l.x - w / 2;
+        // Keep the printed text inside the canvas (e.g. the last tick label at the right edge).
+        const tw = Math.min(w, estimateTextWidth(l.text, size) + 1);
+        const inkLeft = l.align === "right" ? left + w - tw : l.align === "left" ? left : left + (w - tw) / 2;
+        if (inkLeft < 0) left -= inkLeft;
+        else if (inkLeft + tw > width) left -= inkLeft + tw - width;
         return (
           <Text
             key={i}
