@@ -51,6 +51,7 @@ async function newCalculation(page: Page, typeTitle: string, title: string): Pro
   await page.getByRole("radio", { name: new RegExp(typeTitle.replace(/[()]/g, "\\$&")) }).check();
   await expect(page.getByLabel("Number")).toHaveValue(/^C-\d{3}$/);
   await page.getByLabel("Title").fill(title);
+  await shot(page, `00-new-${typeTitle.split(" ")[0].toLowerCase()}`, false);
   await page.getByRole("button", { name: "Create calculation" }).click();
   await page.waitForURL(/\/calculations\/[^/]+$/);
   await expect(page.getByRole("heading", { name: "Checks", exact: true })).toBeVisible();
@@ -177,6 +178,12 @@ test("gain stage: parsed inputs, live results and Bode plot, autosave, check, re
   await expect(row).toBeVisible();
   await eng.getByRole("button", { name: /^Title/ }).click();
   await expect(eng).toHaveURL(/sort=title/);
+  await expect(reg.getByRole("columnheader", { name: /Title/ })).toHaveAttribute("aria-sort", "ascending");
+  await eng.getByLabel("Status").selectOption("draft");
+  await expect(eng.getByText("No calculation matches")).toBeVisible();
+  await eng.getByLabel("Status").selectOption("approved");
+  await expect(row).toBeVisible();
+  await shot(eng, "07-register", false);
 
   // The revision history lists every change and compares two saved states.
   await eng.goto(`${sheetPath}/history`);

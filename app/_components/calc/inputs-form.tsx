@@ -187,7 +187,7 @@ function FieldRow({
           <div>
             <select
               id={id}
-              className={cx(inputClass, "pr-6")}
+              className={cx(inputClass, "pr-6 disabled:appearance-none")}
               aria-invalid={!!serverError}
               aria-describedby={msgId}
               {...form.register(field.key, { setValueAs: (v: unknown) => field.options.find((o) => String(o.value) === String(v))?.value ?? v })}
