@@ -148,13 +148,13 @@ export function CalculationRegister({ slug, projectId, initialQuery, initial, ca
           <label htmlFor="reg-q" className="text-[12px] text-ink-2">
             Search
           </label>
-          <TextInput id="reg-q" type="search" placeholder="Number, title or type" value={search} onChange={(e) => setSearch(e.target.value)} className="h-8 w-64" />
+          <TextInput id="reg-q" type="search" placeholder="Number, title or type" value={search} onChange={(e) => setSearch(e.target.value)} className="h-8 !w-64" />
         </div>
         <div className="flex flex-col gap-0.5">
           <label htmlFor="reg-status" className="text-[12px] text-ink-2">
             Status
           </label>
-          <Select id="reg-status" className="h-8 w-36" value={query.status ?? ""} onChange={(e) => setQuery((q) => ({ ...q, status: (e.target.value || undefined) as CalcStatus | undefined, page: 1 }))}>
+          <Select id="reg-status" className="h-8 !w-36" value={query.status ?? ""} onChange={(e) => setQuery((q) => ({ ...q, status: (e.target.value || undefined) as CalcStatus | undefined, page: 1 }))}>
             <option value="">All</option>
             {(Object.keys(STATUS_LABEL) as CalcStatus[]).map((s) => (
               <option key={s} value={s}>
@@ -167,7 +167,7 @@ export function CalculationRegister({ slug, projectId, initialQuery, initial, ca
           <label htmlFor="reg-pack" className="text-[12px] text-ink-2">
             Pack
           </label>
-          <Select id="reg-pack" className="h-8 w-44" value={query.pack ?? ""} onChange={(e) => setQuery((q) => ({ ...q, pack: (e.target.value || undefined) as PackId | undefined, page: 1 }))}>
+          <Select id="reg-pack" className="h-8 !w-44" value={query.pack ?? ""} onChange={(e) => setQuery((q) => ({ ...q, pack: (e.target.value || undefined) as PackId | undefined, page: 1 }))}>
             <option value="">All</option>
             {PACKS.map((p) => (
               <option key={p.id} value={p.id}>
@@ -177,7 +177,7 @@ export function CalculationRegister({ slug, projectId, initialQuery, initial, ca
           </Select>
         </div>
         <p className="ml-auto text-[12.5px] text-ink-3" aria-live="polite">
-          {isFetching ? "Loading…" : `${count(page.total)} calculation${page.total === 1 ? "" : "s"}${filtered ? " match" : ""}`}
+          {isFetching ? "Loading…" : `${count(page.total)} calculation${page.total === 1 ? "" : "s"}${filtered ? (page.total === 1 ? " matches" : " match") : ""}`}
         </p>
       </div>
       {error ? <Notice tone="error">{(error as Error).message}</Notice> : null}
@@ -226,7 +226,7 @@ export function CalculationRegister({ slug, projectId, initialQuery, initial, ca
         </div>
       )}
       {page.total > 0 ? (
-        <nav className="mt-2 flex flex-wrap items-center justify-between gap-3 text-[13px]" aria-label="Register pages">
+        <nav className="mt-2 flex flex-wrap items-center justify-between gap-3 whitespace-nowrap text-[13px]" aria-label="Register pages">
           <span className="mono text-ink-2">
             {count(from)}–{count(to)} of {count(page.total)}
           </span>
@@ -234,7 +234,7 @@ export function CalculationRegister({ slug, projectId, initialQuery, initial, ca
             <label htmlFor="reg-size" className="text-ink-2">
               Rows
             </label>
-            <Select id="reg-size" className="h-8 w-20" value={String(query.pageSize)} onChange={(e) => setQuery((q) => ({ ...q, pageSize: Number(e.target.value), page: 1 }))}>
+            <Select id="reg-size" className="h-8 !w-20" value={String(query.pageSize)} onChange={(e) => setQuery((q) => ({ ...q, pageSize: Number(e.target.value), page: 1 }))}>
               {[25, 50, 100, 200].map((n) => (
                 <option key={n} value={n}>
                   {n}
