@@ -221,7 +221,7 @@ export function buildReportModel(src: ReportSource): ReportModel {
     signOff: {
       prepared: { name: clip(src.people.preparedBy, 120), date: isoDate(prepared) },
       checked: { name: clip(src.people.checkedBy, 120), date: isoDate(approvedAt) },
-      approved: { name: clip(src.people.approvedBy, 120), date: isoDate(approvedAt) },
+      approved: { name: clip(src.people.approvedBy, 120), date: isoDate(src.issuedAt) },
     },
     engine: { typeId: type.id, version: c.engineVersion },
     verification: src.verification,

@@ -39,7 +39,7 @@ import {
 } from "@/db/schema";
 import { read, write } from "@/db/write";
 import { insertWhere } from "@/db/guarded";
-import { AppError, notFound } from "@/lib/errors";
+import { AppError, forbidden, notFound } from "@/lib/errors";
 import { newId } from "@/lib/ids";
 import { appUrl, env } from "@/lib/env";
 import { sendMail } from "@/lib/mail";
@@ -159,7 +159,9 @@ async function loadSource(ctx: WorkspaceContext, c: Calculation, issuedAt: numbe
       createdAt: c.createdAt,
     },
     type,
-    people: { preparedBy: name(c.preparedBy), checkedBy: name(c.checkerId), approvedBy: name(c.approvedBy) },
+    // Checked by: the reviewer who approved the check. Approved (for issue) by: the checker or
+    // owner issuing it now. Three roles, possibly fewer people in a small firm.
+    people: { preparedBy: name(c.preparedBy), checkedBy: name(c.approvedBy), approvedBy: ctx.user.name },
     history,
     priorReports: prior,
     revisionReasons,
@@ -198,6 +200,8 @@ export async function issueReport(ctx: WorkspaceContext, calcId: string, input: 
   const c = await db0.query.calculations.findFirst({ where: and(eq(calculations.id, calcId), eq(calculations.workspaceId, ctx.workspace.id)) });
   if (!c) throw notFound("That calculation");
   assertIssuable(c, input.version);
+  // Issuing is the approval for release: like the check, never by the one who prepared it.
+  if (c.preparedBy === ctx.user.id) throw forbidden("You prepared this calculation, so someone else (a checker or owner) must issue it.");
   await step("checked");
 
   const identity = await ensureSigningIdentity(ctx.workspace);

@@ -186,12 +186,27 @@ describe("issuing an approved calculation", () => {
     }, 60_000);
   }
 
-  it("prints the sign-off (prepared, checked, approved with dates), engine version, verification code and verify URL", async () => {
+  it("never lets the preparer issue their own calculation (403), and changes nothing", async () => {
     const w = await makeWorld();
-    // Checked by the checker, approved by the owner: three different names in the sign-off.
-    await transitionAs(w, w.engineer, w.calcId, { action: "submit", checkerId: w.checker.id });
+    // The checker prepares and submits to the owner, who approves; the checker may not issue it.
+    await write((db) => db.update(calculations).set({ preparedBy: w.checker.id }).where(eq(calculations.id, w.calcId)));
+    await transitionAs(w, w.checker, w.calcId, { action: "submit", checkerId: w.owner.id });
     await transitionAs(w, w.owner, w.calcId, { action: "approve" });
     const r = await issueAs(w, w.checker);
+    expect(r.status).toBe(403);
+    expect(JSON.stringify(r.body)).toMatch(/someone else \(a checker or owner\) must issue it/);
+    expect((await calcRow(w.calcId)).status).toBe("approved");
+    expect(await reportRows(w.calcId)).toEqual([]);
+    expect((await issueAs(w, w.owner)).status).toBe(201);
+  });
+
+  it("prints the sign-off (prepared, checked, approved with dates), engine version, verification code and verify URL", async () => {
+    const w = await makeWorld();
+    // Checked (the check approved) by the checker, approved for issue by the owner who issues
+    // it: three different names in the sign-off.
+    await transitionAs(w, w.engineer, w.calcId, { action: "submit", checkerId: w.checker.id });
+    await transitionAs(w, w.checker, w.calcId, { action: "approve" });
+    const r = await issueAs(w, w.owner);
     expect(r.status).toBe(201);
     const rep = r.body.report as { id: string; code: string };
     const bytes = (await download(w, w.owner, rep.id)).bytes;
@@ -203,7 +218,7 @@ describe("issuing an approved calculation", () => {
     expect(layout).toMatch(/PREPARED BY\s+CHECKED BY\s+APPROVED BY/i);
     expect(layout).toMatch(/Engineer\s+Checker\s+Owner/);
     expect(layout).toContain(`${day(submitted.at)}`);
-    expect(layout).toMatch(new RegExp(`${day(submitted.at)}\\s+${day(c.approvedAt)}\\s+${day(c.approvedAt)}`));
+    expect(layout).toMatch(new RegExp(`${day(submitted.at)}\\s+${day(c.approvedAt)}\\s+${day(c.issuedAt)}`));
     const text = fold(pdftotext(bytes));
     expect(text).toContain(`filter.lowpass@${getCalcType("filter.lowpass")!.version}`);
     expect(text).toContain(rep.code);

@@ -17,6 +17,8 @@ export interface IssueSlotProps {
   calculation: SheetCalculation;
   /** The member may issue (calc.issue: owner or checker) and the workspace is writable. */
   canIssue: boolean;
+  /** Why issuing is not offered, when it is not (shown as the button's title). */
+  reason?: string;
   /** Report the calculation after an issue so the sheet updates its status and version. */
   onChanged: (c: SheetCalculation) => void;
 }
@@ -40,7 +42,7 @@ interface ReportItem {
 
 const day = (ms: number) => new Date(ms).toISOString().slice(0, 10);
 
-export function IssueSlot({ slug, calculation: calc, canIssue, onChanged }: IssueSlotProps) {
+export function IssueSlot({ slug, calculation: calc, canIssue, reason, onChanged }: IssueSlotProps) {
   const qc = useQueryClient();
   const [confirm, setConfirm] = useState(false);
   const [list, setList] = useState(false);
@@ -77,7 +79,7 @@ export function IssueSlot({ slug, calculation: calc, canIssue, onChanged }: Issu
           variant="primary"
           size="sm"
           disabled={!canIssue || busy}
-          title={canIssue ? undefined : "Only a checker or the owner issues reports, and only while the workspace accepts changes."}
+          title={canIssue ? undefined : (reason ?? "Only a checker or the owner issues reports, and only while the workspace accepts changes.")}
           onClick={() => {
             setError(null);
             setConfirm(true);

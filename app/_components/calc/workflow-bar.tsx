@@ -170,7 +170,13 @@ export function WorkflowBar({
               Start revision {nextRevisionLetter(calc.revision)}
             </Button>
           ) : null}
-          <IssueSlot slug={slug} calculation={calc} canIssue={perms.issue && writable} onChanged={onChanged} />
+          <IssueSlot
+            slug={slug}
+            calculation={calc}
+            canIssue={perms.issue && writable && !isPreparer}
+            reason={isPreparer && perms.issue ? "You prepared this calculation, so another checker or the owner must issue it." : undefined}
+            onChanged={onChanged}
+          />
         </div>
       </div>
       <div className="mt-1 flex flex-col items-end">
