@@ -108,6 +108,9 @@ export function CalculationRegister({ slug, projectId, initialQuery, initial, ca
   );
 
   const sorting: SortingState = [{ id: query.sort, desc: query.dir === "desc" }];
+  // TanStack Table's instance is not memoisable by the React Compiler; the compiler skips this
+  // component, which is what we want (the table re-renders from the server page anyway).
+  // eslint-disable-next-line react-hooks/incompatible-library
   const table = useReactTable({
     data: page.rows,
     columns,
