@@ -61,5 +61,65 @@ export async function seedDemo(): Promise<DemoLogin[]> {
       ),
     ]);
   });
+  await seedCalculations(wsId, ids, projectRows.map((p) => p.id));
   return logins;
+}
+
+type PersonKey = (typeof DEMO_PEOPLE)[number]["key"];
+
+/**
+ * A few calculations in every state of the workflow, made through the same functions the
+ * route handlers call: drafts, one returned with a comment, one in check, one approved, and
+ * issued ones with signed reports (one of them superseded by a revision B in progress).
+ */
+async function seedCalculations(wsId: string, ids: Record<PersonKey, string>, [bridge, lineDriver, battery]: string[]): Promise<void> {
+  const { createCalculation, saveCalculation, getCalculationRow } = await import("../lib/calculations");
+  const { transition } = await import("../lib/calculations/workflow");
+  const { issueReport } = await import("../lib/reports/issue");
+  const db = await read();
+  const ws = (await db.query.workspaces.findFirst({ where: eq(workspaces.id, wsId) }))!;
+  const ctxs = {} as Record<PersonKey, { user: NonNullable<Awaited<ReturnType<typeof db.query.users.findFirst>>>; workspace: typeof ws; role: (typeof DEMO_PEOPLE)[number]["role"] }>;
+  for (const p of DEMO_PEOPLE) ctxs[p.key] = { user: (await db.query.users.findFirst({ where: eq(users.id, ids[p.key]) }))!, workspace: ws, role: p.role };
+  const library = await db.select().from(parts).where(eq(parts.workspaceId, wsId));
+
+  /** The type's defaults, with its part taken from the library (so the report names the source). */
+  async function create(who: PersonKey, projectId: string, typeId: string, title: string) {
+    const c = await createCalculation(ctxs[who], projectId, { typeId, title });
+    const inputs = structuredClone(c.inputs) as Record<string, unknown>;
+    for (const [k, v] of Object.entries(inputs)) {
+      const part = v && typeof v === "object" && "values" in v ? library.find((l) => l.name === (v as unknown as { name: string }).name) : undefined;
+      if (part) inputs[k] = { partId: part.id, name: part.name, values: { ...part.params } };
+    }
+    const saved = await saveCalculation(ctxs[who], c.id, { version: c.version, inputs });
+    return saved;
+  }
+  const version = async (id: string) => (await getCalculationRow(ctxs.owner, id)).version;
+  const go = async (who: PersonKey, id: string, body: Record<string, unknown>) =>
+    transition(ctxs[who], id, { version: await version(id), ...body } as Parameters<typeof transition>[2]);
+  const approveFlow = async (id: string) => {
+    await go("engineer", id, { action: "submit", checkerId: ids.checker });
+    await go("checker", id, { action: "approve", comment: "Checked against the sensor data sheet and the board's supply tolerances." });
+  };
+
+  // Strain-gauge front end: an issued gain stage, a filter in check, a draft error budget.
+  const gain = await create("engineer", bridge, "amplifier.gain-stage", "Bridge amplifier gain stage");
+  await approveFlow(gain.id);
+  await issueReport(ctxs.owner, gain.id, { version: await version(gain.id) });
+  const aaf = await create("engineer", bridge, "filter.lowpass", "Anti-alias low-pass ahead of the ADC");
+  await go("engineer", aaf.id, { action: "submit", checkerId: ids.checker });
+  await create("engineer", bridge, "reference.adc-budget", "ADC reference error budget");
+
+  // Line driver: an approved output stage waiting to be issued; a difference receiver returned.
+  const out = await create("engineer", lineDriver, "amplifier.power-stage", "Output stage dissipation and heatsink");
+  await approveFlow(out.id);
+  const diff = await create("engineer", lineDriver, "amplifier.difference", "Balanced input receiver");
+  await go("engineer", diff.id, { action: "submit", checkerId: ids.checker });
+  await go("checker", diff.id, { action: "return", comment: "State the source impedance of the console outputs and use 0.1 % resistors in the CMRR case." });
+
+  // Battery monitor: revision A issued, revision B started (A is superseded and stays downloadable).
+  const shunt = await create("engineer", battery, "reference.shunt", "Shunt reference bias resistor");
+  await approveFlow(shunt.id);
+  await issueReport(ctxs.owner, shunt.id, { version: await version(shunt.id) });
+  await go("engineer", shunt.id, { action: "revise", comment: "Supply range widened to 3.0–4.4 V after the battery change." });
+  await create("engineer", battery, "filter.bandpass", "Pilot-tone band-pass");
 }

@@ -1,6 +1,8 @@
 // npm run db:seed – the invented demo firm (idempotent); writes data/demo-logins.json.
 import { loadEnvFiles } from "./env-files";
 loadEnvFiles();
+// Seeding sends no mail (the sink may not run yet): messages stay in memory.
+process.env.MAIL_TRANSPORT = "json";
 const { seedDemo } = await import("./seed-demo");
 const { closeDb } = await import("../db/client");
 const logins = await seedDemo();
