@@ -16,6 +16,7 @@ import * as partRoute from "@/app/api/w/[slug]/parts/[partId]/route";
 import * as templateRoute from "@/app/api/w/[slug]/parts/template/route";
 import * as exportRoute from "@/app/api/w/[slug]/parts/export/route";
 import * as importRoute from "@/app/api/w/[slug]/parts/import/route";
+import * as starterRoute from "@/app/api/w/[slug]/parts/starter/route";
 import * as attachmentsRoute from "@/app/api/w/[slug]/calculations/[calcId]/attachments/route";
 import * as attachmentRoute from "@/app/api/w/[slug]/calculations/[calcId]/attachments/[attachmentId]/route";
 
@@ -55,6 +56,7 @@ const F = {
 };
 
 export const ROUTES: RouteCase[] = [
+  { file: "app/api/w/[slug]/parts/starter/route.ts", method: "POST", handler: starterRoute.POST, params: ws, body: () => ({ kind: "opamp" }), expect: STAFF(201) },
   { file: F.parts, method: "GET", handler: partsRoute.GET, params: ws, query: "?kind=opamp", expect: STAFF(200) },
   {
     file: F.parts,

@@ -146,7 +146,31 @@ export function PartsView({ slug, initial, canManage }: { slug: string; initial:
           </div>
         ) : null}
         {rows.length === 0 ? (
-          <EmptyState title={`No ${KIND_LABELS[kind]} in the library yet`}>{canManage ? "Add one with the form, or import a CSV file." : "Ask an engineer to add some."}</EmptyState>
+          <EmptyState title={`No ${KIND_LABELS[kind]} in the library yet`}>
+            {canManage ? (
+              <>
+                <p>Add one with the form, or import a CSV file.</p>
+                <p className="mt-3">
+                  <Button
+                    size="sm"
+                    onClick={async () => {
+                      try {
+                        const r = await api<{ added: number }>(`/api/w/${slug}/parts/starter`, { body: { kind } });
+                        setNotice(`Added ${r.added} generic example ${KIND_LABELS[kind]} with invented values. Replace them with your firm's approved parts before relying on them.`);
+                        qc.invalidateQueries({ queryKey: ["parts", slug] });
+                      } catch (e) {
+                        setNotice((e as Error).message);
+                      }
+                    }}
+                  >
+                    Add the generic starter set to try things out
+                  </Button>
+                </p>
+              </>
+            ) : (
+              "Ask an engineer to add some."
+            )}
+          </EmptyState>
         ) : (
           <div className="overflow-x-auto rounded-lg border border-rule bg-sheet">
             <table className="table-dense" aria-label={kind === "opamp" ? "Op-amps" : "References"}>
