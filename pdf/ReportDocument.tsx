@@ -1,7 +1,8 @@
 /**
- * The report documents: the measuring document (all blocks on one tall page, laid out once to
- * learn their heights) and the printed document (A4 pages holding the blocks the page breaker
- * assigned to them, each with a running header and a footer with "Page X of Y").
+ * The report documents: the block document (all blocks on one tall page, laid out once to learn
+ * their heights) and the page document (A4 pages holding the blocks the page breaker assigned to
+ * them, each with a running header and a footer with "Page X of Y"; lib/reports/render.ts lays
+ * it out with empty content areas and moves the already laid-out blocks in).
  *
  * Pages are static (no render props): the page breaker already knows every page's content and
  * the page count, so react-pdf never re-flows the document.
@@ -14,19 +15,22 @@ import "./fonts";
 import type { Block } from "./block";
 import { colors, page, s, TABULAR } from "./theme";
 import { urlWithoutScheme } from "./text";
+import { monoText } from "./parts/rich";
 
 /** Height of the tall page blocks are measured on, pt (far more than any report needs). */
 export const MEASURE_PAGE_HEIGHT = 1_000_000;
+/** id of each page's content area (lib/reports/render.ts places the measured blocks in it). */
+export const CONTENT_ID = "report-content";
 /** Usable content height of an A4 page, pt. */
 export const CONTENT_HEIGHT = page.height - page.marginTop - page.marginBottom;
 
-/** All blocks, stacked without gaps on one tall page, for measuring. */
+/** All blocks, stacked without gaps on one tall page: laid out once, measured, then placed. */
 export function MeasureDocument(props: { blocks: Block[] }): ReactElement {
   return (
     <Document>
       <Page size={[page.width, MEASURE_PAGE_HEIGHT]} style={s.page} wrap={false}>
         {props.blocks.map((b) => (
-          <View key={b.key}>{b.measureEl ?? b.el}</View>
+          <View key={b.key}>{b.el}</View>
         ))}
       </Page>
     </Document>
@@ -53,7 +57,7 @@ function Footer(props: { model: ReportModel; pageNumber: number; totalPages: num
     <View style={s.footer}>
       <Text style={{ flexGrow: 1, flexShrink: 1, flexBasis: 0, maxLines: 1, textOverflow: "ellipsis" }}>
         <Text style={{ color: colors.muted }}>Verification code </Text>
-        <Text style={[s.mono, { fontWeight: 500, color: colors.ink }]}>{model.verification.code}</Text>
+        <Text style={[s.mono, { fontWeight: 500, color: colors.ink }]}>{monoText(model.verification.code)}</Text>
         <Text style={{ color: colors.muted }}>{`   verify at ${urlWithoutScheme(model.verification.url)}`}</Text>
       </Text>
       <Text style={{ width: 96, textAlign: "center", color: colors.muted, fontFeatureSettings: TABULAR }}>{`Issue date ${model.issueDate}`}</Text>
@@ -84,7 +88,7 @@ export function ReportPagesDocument(props: { model: ReportModel; blocks: Block[]
         // exact height of an A4 text block, so every page is exactly A4.
         <Page key={p} size="A4" style={s.page} wrap={false}>
           {p > 0 ? <RunningHeader model={model} /> : null}
-          <View style={{ height: CONTENT_HEIGHT }}>
+          <View id={CONTENT_ID} style={{ height: CONTENT_HEIGHT }}>
             {items.map((it) => (
               <View key={it.kind === "header" ? `h${p}:${it.index}` : blocks[it.index].key} style={it.spaceBefore ? { marginTop: it.spaceBefore } : undefined}>
                 {blocks[it.index].el}

@@ -10,9 +10,4 @@ export interface Block extends Omit<FlowBlock, "height"> {
   key: string;
   /** What is printed. */
   el: ReactElement;
-  /**
-   * Stand-in of the same height used when measuring (e.g. a figure's frame without its vector
-   * drawing, which has a fixed height anyway); defaults to `el`.
-   */
-  measureEl?: ReactElement;
 }

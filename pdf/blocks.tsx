@@ -13,7 +13,7 @@ import type { Block } from "./block";
 import { colors, contentWidth, s, severityStyle, TABULAR } from "./theme";
 import { groupRows, plainRows, tableBlocks, type Column } from "./parts/table";
 import { QrCode } from "./parts/QrCode";
-import { withSubscripts } from "./parts/rich";
+import { monoText, withSubscripts } from "./parts/rich";
 import { LinePlotChart, axisTitle, lineAxisUnits, seriesStyle } from "./plots/LinePlotChart";
 import { HistogramChart, histogramAxisUnit } from "./plots/HistogramChart";
 import { LevelsChart, levelsAxisUnit } from "./plots/LevelsChart";
@@ -30,7 +30,7 @@ function KeyValue(props: { label: string; value: string; width: number; mono?: b
   return (
     <View style={{ width: props.width, paddingRight: 8, marginBottom: 7 }}>
       <Text style={s.label}>{props.label}</Text>
-      <Text style={[{ fontSize: 9.2, marginTop: 1.5, fontWeight: props.strong ? 600 : 400 }, props.mono ? s.mono : {}]}>{props.value || "—"}</Text>
+      <Text style={[{ fontSize: 9.2, marginTop: 1.5, fontWeight: props.strong ? 600 : 400 }, props.mono ? s.mono : {}]}>{props.mono ? monoText(props.value || "—") : props.value || "—"}</Text>
     </View>
   );
 }
@@ -96,7 +96,7 @@ class Flow {
         <Text style={s.h1Num}>{String(n)}</Text>
         <Text style={s.h1Text}>{title}</Text>
       </View>,
-      18,
+      16,
       { keepWithNext: true },
     );
   }
@@ -125,7 +125,7 @@ function cover(model: ReportModel): ReactElement {
         </View>
         <View style={{ width: 92, alignItems: "center" }}>
           <QrCode value={model.verification.url} sizePt={76} />
-          <Text style={[s.mono, { fontSize: 7.6, fontWeight: 500, marginTop: 1 }]}>{model.verification.code}</Text>
+          <Text style={[s.mono, { fontSize: 7.6, fontWeight: 500, marginTop: 1 }]}>{monoText(model.verification.code)}</Text>
           <Text style={{ fontSize: 6.2, color: colors.muted, textAlign: "center", marginTop: 1 }}>Scan or enter the code to verify</Text>
         </View>
       </View>
@@ -194,7 +194,7 @@ function formula(f: ReportFormula, n: number, lhsWidth: number): ReactElement {
     </View>
   );
   return (
-    <View style={{ flexDirection: "row", paddingVertical: 5, borderBottomWidth: 0.4, borderBottomColor: colors.ruleLight }}>
+    <View style={{ flexDirection: "row", paddingVertical: 4.2, borderBottomWidth: 0.4, borderBottomColor: colors.ruleLight }}>
       <Text style={{ width: 26, color: colors.copper, fontSize: 8, fontWeight: 600, paddingTop: 0.8, fontFeatureSettings: TABULAR }}>{`(${n})`}</Text>
       <View style={{ flexGrow: 1, flexShrink: 1, flexBasis: 0 }}>
         <View style={{ flexDirection: "row", marginBottom: 2 }}>
@@ -255,12 +255,9 @@ export function freeTableLayout(table: ResultTable, width = contentWidth): { wid
     const share = want > 0 ? Math.min(c.pref - c.min, (spare * (c.pref - c.min)) / want) : 0;
     return c.min + share;
   });
-  // Whatever is still spare (all columns at their preferred width) goes to the widest column.
-  const left = width - widths.reduce((a, b) => a + b, 0);
-  if (left > 0) {
-    const widest = widths.indexOf(Math.max(...widths));
-    widths[widest] += left;
-  }
+  // Whatever is still spare (all columns at their preferred width) is shared in proportion.
+  const sum = widths.reduce((a, b) => a + b, 0);
+  if (width > sum && sum > 0) for (let i = 0; i < widths.length; i++) widths[i] *= width / sum;
   const scale = minSum > width ? width / minSum : 1;
   return { widths: widths.map((w) => w * scale), fontSize };
 }
@@ -294,7 +291,7 @@ function checksTable(checks: Check[]): Block[] {
       key: "title",
       label: "Check",
       cell: (c) => (
-        <View style={{ paddingHorizontal: 4, paddingVertical: 2.6 }}>
+        <View style={{ paddingHorizontal: 4, paddingVertical: 2.3 }}>
           <Text style={{ fontSize: 8.2, fontWeight: 600 }}>{c.title}</Text>
           <Text style={{ fontSize: 8, color: colors.ink2, marginTop: 1 }}>{c.message}</Text>
         </View>
@@ -323,8 +320,8 @@ function legend(plot: LinePlot): ReactNode {
 
 const CHART_HEIGHT = { line: 148, histogram: 140, levels: 170 } as const;
 
-/** A figure; `drawing: false` gives the same frame with an empty box of the chart's height. */
-function figure(plot: Plot, n: number, drawing: boolean): ReactElement {
+/** A figure: title, axis titles and legend around the vector chart. */
+function figure(plot: Plot, n: number): ReactElement {
   const width = contentWidth;
   let yTitle: string;
   let xTitle = "";
@@ -336,14 +333,14 @@ function figure(plot: Plot, n: number, drawing: boolean): ReactElement {
     yTitle = axisTitle(plot.y.label, u.y);
     xTitle = axisTitle(plot.x.label, u.x);
     legendEl = legend(plot);
-    chart = drawing ? <LinePlotChart plot={plot} width={width} height={height} /> : null;
+    chart = <LinePlotChart plot={plot} width={width} height={height} />;
   } else if (plot.kind === "histogram") {
     yTitle = "Count";
     xTitle = axisTitle(plot.x.label, histogramAxisUnit(plot));
-    chart = drawing ? <HistogramChart plot={plot} width={width} height={height} /> : null;
+    chart = <HistogramChart plot={plot} width={width} height={height} />;
   } else {
     yTitle = axisTitle("Level", levelsAxisUnit(plot));
-    chart = drawing ? <LevelsChart plot={plot} width={width} height={height} /> : null;
+    chart = <LevelsChart plot={plot} width={width} height={height} />;
   }
   return (
     <View>
@@ -355,7 +352,7 @@ function figure(plot: Plot, n: number, drawing: boolean): ReactElement {
         <Text style={{ fontSize: 6.8, color: colors.ink2, width: 120, paddingRight: 12 }}>{yTitle}</Text>
         {legendEl}
       </View>
-      {chart ?? <View style={{ height }} />}
+      {chart}
       {xTitle ? <Text style={{ fontSize: 6.8, color: colors.ink2, textAlign: "center", marginTop: 1 }}>{xTitle}</Text> : null}
     </View>
   );
@@ -415,22 +412,21 @@ function signOff(model: ReportModel): ReactElement {
 
 function verification(model: ReportModel): ReactElement {
   const row = (label: string, value: string, mono = false) => (
-    <View style={{ flexDirection: "row", marginBottom: 2.5 }}>
-      <Text style={{ width: 104, color: colors.muted, fontSize: 7.8 }}>{label}</Text>
-      <Text style={[{ flexGrow: 1, flexShrink: 1, flexBasis: 0, fontSize: 7.8 }, mono ? s.mono : {}]}>{value}</Text>
+    <View style={{ flexDirection: "row", marginBottom: 1.6 }}>
+      <Text style={{ width: 92, color: colors.muted, fontSize: 7.6 }}>{label}</Text>
+      <Text style={[{ flexGrow: 1, flexShrink: 1, flexBasis: 0, fontSize: 7.6 }, mono ? s.mono : {}]}>{mono ? monoText(value) : value}</Text>
     </View>
   );
   return (
-    <View style={{ flexDirection: "row", borderWidth: 0.6, borderColor: colors.rule, backgroundColor: colors.fillLight, padding: 8 }}>
+    <View style={{ flexDirection: "row", borderWidth: 0.6, borderColor: colors.rule, backgroundColor: colors.fillLight, paddingHorizontal: 8, paddingVertical: 6 }}>
       <View style={{ flexGrow: 1, flexShrink: 1, flexBasis: 0, paddingRight: 10 }}>
-        <Text style={{ fontSize: 8.4, fontWeight: 600, marginBottom: 4 }}>Engine and verification</Text>
-        {row("Engine version", `${model.engine.typeId}@${model.engine.version}`, true)}
-        {row("Calculation type", `${model.calculation.typeTitle} (${model.calculation.packTitle})`)}
+        <Text style={{ fontSize: 8.4, fontWeight: 600, marginBottom: 3 }}>Engine and verification</Text>
+        {row("Engine version", `${model.engine.typeId}@${model.engine.version} (${model.calculation.typeTitle})`, true)}
         {row("Verification code", model.verification.code, true)}
         {row("Verify at", model.verification.url, true)}
         {model.signer ? row("Certificate SHA-256", formatFingerprint(model.signer.fingerprint), true) : null}
         <Text style={[s.small, { marginTop: 3 }]}>
-          Open the address, scan the code or upload this PDF on the verify page: it shows whether this file is exactly the report that was issued, and by whom.
+          The verify page shows whether a file is exactly the report that was issued, and by whom.
         </Text>
       </View>
       <QrCode value={model.verification.url} sizePt={74} />
@@ -482,7 +478,7 @@ export function reportBlocks(model: ReportModel): Block[] {
   if (model.plots.length > 0) {
     f.section("Plots");
     model.plots.forEach((p, i) => {
-      f.add(figure(p, i + 1, true), i === 0 ? 2 : 14, { measureEl: figure(p, i + 1, false) });
+      f.add(figure(p, i + 1), i === 0 ? 2 : 14);
     });
   }
 
@@ -510,6 +506,6 @@ export function reportBlocks(model: ReportModel): Block[] {
 
   f.section("Sign-off");
   f.add(signOff(model), 2);
-  f.add(verification(model), 12);
+  f.add(verification(model), 10);
   return f.blocks;
 }

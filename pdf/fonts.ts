@@ -11,9 +11,9 @@ import { Font } from "@react-pdf/renderer";
  * OpenType features for all text. Inter's contextual lookups (calt, ccmp, mark …) cost shaping
  * time and do nothing for our Latin and Greek text, so only kerning stays on.
  */
-export const TEXT_FEATURES = { kern: true, calt: false, ccmp: false, locl: false, rlig: false, mark: false, mkmk: false, clig: false, liga: false, rclt: false, curs: false } as const;
+export const TEXT_FEATURES = Object.freeze({ kern: true, calt: false, ccmp: false, locl: false, rlig: false, mark: false, mkmk: false, clig: false, liga: false, rclt: false, curs: false } as const);
 /** The same, with tabular (monospaced) digits for numbers in tables and results. */
-export const TABULAR_FEATURES = { ...TEXT_FEATURES, tnum: true } as const;
+export const TABULAR_FEATURES = Object.freeze({ ...TEXT_FEATURES, tnum: true } as const);
 
 /** Family names used by the styles. */
 export const FONT_SANS = "Inter";
@@ -135,7 +135,11 @@ export async function startShapingCache(): Promise<void> {
         const key = `${text}\u0000${features ? JSON.stringify(features) : ""}\u0000${script ?? ""}\u0000${language ?? ""}\u0000${direction ?? ""}`;
         let run = cache.get(key);
         if (!run) {
-          run = original(text, features, script, language, direction);
+          // fontkit writes every feature it planned back into the object it is given (frac,
+          // numr, dnom … all true), which would switch them on for the next run that shares
+          // it: hand it a copy.
+          const own = features && typeof features === "object" && !Array.isArray(features) ? { ...features } : features;
+          run = original(text, own, script, language, direction);
           repairCodePoints(text, run);
           if (cache.size >= MAX_CACHED_RUNS) cache.clear();
           cache.set(key, run);

@@ -102,8 +102,8 @@ export const s = StyleSheet.create({
   th: { paddingVertical: 3, paddingHorizontal: 4, fontSize: 7.2, fontWeight: 600, color: colors.ink2, letterSpacing: 0.2 },
   tr: { flexDirection: "row", borderBottomWidth: 0.4, borderBottomColor: colors.ruleLight },
   trLast: { flexDirection: "row", borderBottomWidth: 0.8, borderBottomColor: colors.ink },
-  td: { paddingVertical: 2.6, paddingHorizontal: 4, fontSize: 8.2 },
-  tdNum: { paddingVertical: 2.6, paddingHorizontal: 4, fontSize: 8.2, textAlign: "right" },
+  td: { paddingVertical: 2.3, paddingHorizontal: 4, fontSize: 8.2 },
+  tdNum: { paddingVertical: 2.3, paddingHorizontal: 4, fontSize: 8.2, textAlign: "right" },
   groupRow: { flexDirection: "row", backgroundColor: colors.fillLight, borderBottomWidth: 0.4, borderBottomColor: colors.ruleLight },
   groupCell: { paddingVertical: 2.4, paddingHorizontal: 4, fontSize: 7.4, fontWeight: 600, color: colors.ink2, letterSpacing: 0.3 },
 });

@@ -502,7 +502,6 @@ export function sampleReportModel(overrides: Partial<ReportModel> = {}): ReportM
     components,
     assumptions: [
       "The op-amp is modelled with a single-pole open-loop response (GBW 10 MHz, A_OL 110 dB); second poles above 20 MHz are neglected.",
-      "The source driving R1 has an output resistance below 10 Ω, small against 1.47 kΩ.",
       "Resistor and capacitor values are uniformly distributed within their tolerance bands and independent of each other.",
       "Capacitors are C0G/NP0 dielectric: their value does not change with applied voltage, and their drift over −40 °C to 85 °C is below 0.2 %.",
       "The ADC driver input is resistive (10 kΩ) with less than 100 pF in parallel.",

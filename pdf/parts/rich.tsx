@@ -5,6 +5,7 @@
  */
 import type { ReactNode } from "react";
 import { Text } from "@react-pdf/renderer";
+import { FONT_SANS } from "../fonts";
 
 const SUBSCRIPT = /([A-Za-z0-9Δα-ωΑ-Ω)′])_([A-Za-z0-9+−-]+(?:,[A-Za-z0-9+−-]+)*)/g;
 
@@ -31,4 +32,22 @@ export function withSubscripts(text: string, size: number): ReactNode {
   }
   out.push(text.slice(last));
   return out;
+}
+
+/**
+ * Children for a Text set in the monospaced font. The shipped IBM Plex Mono files have a space
+ * glyph fontkit cannot read (laying out any text with a space in it throws), so spaces are set
+ * in Inter.
+ */
+export function monoText(text: string): ReactNode {
+  if (!text.includes(" ")) return text;
+  return text.split(/( +)/).map((part, i) =>
+    part.startsWith(" ") ? (
+      <Text key={i} style={{ fontFamily: FONT_SANS }}>
+        {part}
+      </Text>
+    ) : (
+      part
+    ),
+  );
 }

@@ -2,6 +2,8 @@ import { createHash } from "node:crypto";
 import fs from "node:fs";
 import os from "node:os";
 import path from "node:path";
+import { createElement, type ReactElement } from "react";
+import { renderToBuffer, type DocumentProps } from "@react-pdf/renderer";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { produceSignedReport } from "@/lib/reports/produce";
 import { layoutReport, renderReportPdf } from "@/lib/reports/render";
@@ -9,6 +11,8 @@ import { sampleReportModel } from "@/lib/reports/sample";
 import { createSigningIdentity, formatFingerprint, type SigningIdentity } from "@/lib/reports/signing";
 import type { ReportModel } from "@/lib/reports/model";
 import { page as pageGeometry } from "@/pdf/theme";
+import { TABULAR_FEATURES, TEXT_FEATURES } from "@/pdf/fonts";
+import { ReportPagesDocument } from "@/pdf/ReportDocument";
 import { pdfPages, pdfsig, pdftotext, requirePoppler, squash, wordBoxes } from "./poppler";
 
 const SECRET = "integration-test-server-secret-42";
@@ -155,6 +159,34 @@ describe("rendering", () => {
     expect(a.equals(b)).toBe(true);
     // No clock in the file: its only dates are the creation and modification date, both the issue date.
     expect(a.toString("latin1").match(/D:\d{8,14}/g)).toEqual(["D:20250314000000", "D:20250314000000"]);
+  });
+
+  it("leaves the shared OpenType feature sets as they were (fontkit writes into what it is given)", async () => {
+    await renderReportPdf(model);
+    expect(Object.isFrozen(TEXT_FEATURES)).toBe(true);
+    expect(Object.entries(TEXT_FEATURES).filter(([, on]) => on)).toEqual([["kern", true]]);
+    expect(Object.entries(TABULAR_FEATURES).filter(([, on]) => on)).toEqual([["kern", true], ["tnum", true]]);
+  });
+
+  it("places the blocks exactly where react-pdf itself lays out the same pages", async () => {
+    // renderReportPdf lays each block out once and moves it into its page; react-pdf's own
+    // renderToBuffer of the same pages lays everything out afresh. Same words, same boxes.
+    const { blocks, pages } = await layoutReport(model);
+    const own = await renderToBuffer(createElement(ReportPagesDocument, { model, blocks, pages }) as ReactElement<DocumentProps>);
+    const ownFile = path.join(dir, "own.pdf");
+    const fastFile = path.join(dir, "fast.pdf");
+    fs.writeFileSync(ownFile, own);
+    fs.writeFileSync(fastFile, await renderReportPdf(model));
+    expect(pdfPages(fastFile)).toBe(pdfPages(ownFile));
+    const a = wordBoxes(fastFile);
+    const b = wordBoxes(ownFile);
+    expect(a.length).toBe(b.length);
+    a.forEach((w, i) => {
+      expect(w.text).toBe(b[i].text);
+      expect(w.page).toBe(b[i].page);
+      expect(Math.abs(w.xMin - b[i].xMin), `"${w.text}" x`).toBeLessThan(0.05);
+      expect(Math.abs(w.yMin - b[i].yMin), `"${w.text}" y on page ${w.page}`).toBeLessThan(0.05);
+    });
   });
 
   it("refuses an invalid model with the field named", async () => {
