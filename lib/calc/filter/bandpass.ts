@@ -14,7 +14,7 @@ export const bandpassType: CalcType<typeof bandpassSchema> = {
   pack: "filter",
   title: "Active band-pass filter (multiple feedback)",
   summary: "Designs a multiple-feedback band-pass section for a centre frequency, Q and centre gain with preferred values, and checks its response, op-amp gain and tolerance spread.",
-  version: "1.0.0",
+  version: "1.0.1",
   schema: bandpassSchema,
   fields: bandpassFields,
   defaults: {

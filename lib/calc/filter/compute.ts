@@ -428,10 +428,15 @@ export function computeFilter(kind: "lowpass" | "highpass" | "bandpass", input: 
   );
   if (mc.rejected > 0 || wc.unstableCorners > 0)
     out.check(makeCheck("tolerance.stability", "fail", "Stability over tolerance", `${mc.rejected} of ${mc.trials} Monte Carlo trials and ${wc.unstableCorners} worst-case corners give an unstable or degenerate response (a section's damping changes sign). Use another topology for the high-Q sections or tighter parts.`, -mc.rejected / mc.trials));
-  out.plots.push(
-    histogramPlot("mc.frequency", `Monte Carlo: ${fLabel}`, kind === "bandpass" ? "Centre frequency" : "−3 dB frequency", "Hz", mc.frequency, targetF),
-    histogramPlot("mc.gain", "Monte Carlo: passband gain magnitude", kind === "bandpass" ? "Centre gain" : "Passband gain", "V/V", mc.gain, Math.abs(design.targetGain)),
-  );
+  out.plots.push(histogramPlot("mc.frequency", `Monte Carlo: ${fLabel}`, kind === "bandpass" ? "Centre frequency" : "−3 dB frequency", "Hz", mc.frequency, targetF));
+  // A gain set by no toleranced part (unity-gain followers) has no spread: say so instead of
+  // drawing a histogram one bin wide.
+  const gainSpread = mc.gain.max - mc.gain.min;
+  if (gainSpread > 1e-9 * Math.max(Math.abs(mc.gain.mean), 1e-30)) {
+    out.plots.push(histogramPlot("mc.gain", "Monte Carlo: passband gain magnitude", kind === "bandpass" ? "Centre gain" : "Passband gain", "V/V", mc.gain, Math.abs(design.targetGain)));
+  } else {
+    out.assumptions.push(`The passband gain does not depend on any toleranced component in this design (every trial gives ${fmt(mc.gain.mean, "V/V", 6)}), so no gain histogram is drawn.`);
+  }
 
   // ---- tables --------------------------------------------------------------------------------------
   const sectionTable: ResultTable = {

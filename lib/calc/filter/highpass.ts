@@ -17,7 +17,7 @@ export const highpassType: CalcType<typeof schema> = {
   pack: "filter",
   title: "Active high-pass filter",
   summary: "Designs a high-pass filter of order 1 to 8 as cascaded op-amp sections with preferred component values, and checks its response, op-amp and tolerance spread.",
-  version: "1.0.0",
+  version: "1.0.1",
   schema,
   fields: cascadeFields("highpass"),
   defaults: {

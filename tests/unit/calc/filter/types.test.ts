@@ -40,7 +40,7 @@ describe("registry", () => {
     for (const t of filterTypes) {
       expect(getCalcType(t.id)).toBe(t);
       expect(t.pack).toBe("filter");
-      expect(t.version).toBe("1.0.0");
+      expect(t.version).toBe("1.0.1");
       expect(t.fields.some((f) => f.kind === "part" && f.key === "opamp")).toBe(true);
       expect(typeof t.netlist).toBe("function");
     }
@@ -51,9 +51,26 @@ describe("registry", () => {
       expect(allFinite(o)).toBe(true);
       expect(o.checks.filter((c) => c.severity === "fail").map((c) => c.id)).toEqual([]);
       expect(o.tables[0].rows.length).toBeGreaterThan(0);
-      expect(o.plots.map((p) => p.id)).toEqual(expect.arrayContaining(["bode.magnitude", "bode.phase", "group-delay", "mc.frequency", "mc.gain"]));
+      expect(o.plots.map((p) => p.id)).toEqual(expect.arrayContaining(["bode.magnitude", "bode.phase", "group-delay", "mc.frequency"]));
+      // A gain histogram only where the gain depends on toleranced parts; otherwise a sentence.
+      const gainResult = o.results.find((r) => r.key === "wc_gain_max")!.value - o.results.find((r) => r.key === "wc_gain_min")!.value;
+      if (gainResult > 1e-9) expect(o.plots.map((p) => p.id)).toContain("mc.gain");
+      else expect(o.assumptions.some((a) => /no gain histogram is drawn/.test(a))).toBe(true);
       expect(o.components.filter((c) => c.kind === "opamp").length).toBe(o.tables[0].rows.length);
     }
+  });
+});
+
+describe("gain histogram", () => {
+  it("is drawn for a gain set by resistors and left out (with a sentence) for unity-gain sections", () => {
+    // Unity-gain Sallen-Key sections: the gain is exactly 1 whatever the tolerances
+    // (common practice, no source: a follower's gain sets no component).
+    const unity = run(lowpassType, { ...lowpassType.defaults, topology: "sk-unity", fixGain: false });
+    expect(unity.plots.map((p) => p.id)).not.toContain("mc.gain");
+    expect(unity.assumptions.join(" ")).toMatch(/does not depend on any toleranced component/);
+    // Multiple feedback with gain 2: the gain is a resistor ratio and spreads.
+    const mfb = run(lowpassType, { ...lowpassType.defaults, topology: "mfb", fixGain: true, gain: "2" });
+    expect(mfb.plots.map((p) => p.id)).toContain("mc.gain");
   });
 });
 
