@@ -110,7 +110,10 @@ export function resultLine(job: MonteCarloJob, r: MonteCarloResult) {
     sections: r.sections,
     plots: [
       histogram("mc.frequency", `Monte Carlo: ${fLabel} (${r.trials.toLocaleString("en-GB")} trials)`, bp ? "Centre frequency" : "−3 dB frequency", "Hz", r.frequency, job.target.frequency),
-      histogram("mc.gain", `Monte Carlo: passband gain magnitude (${r.trials.toLocaleString("en-GB")} trials)`, bp ? "Centre gain" : "Passband gain", "V/V", r.gain, job.target.gain),
+      // No one-bin histogram for a gain no toleranced part sets (as in the filter compute).
+      ...(r.gain.max - r.gain.min > 1e-9 * Math.max(Math.abs(r.gain.mean), 1e-30)
+        ? [histogram("mc.gain", `Monte Carlo: passband gain magnitude (${r.trials.toLocaleString("en-GB")} trials)`, bp ? "Centre gain" : "Passband gain", "V/V", r.gain, job.target.gain)]
+        : []),
     ],
   };
 }
