@@ -32,8 +32,7 @@ const LONGEST_WHOLE_WORD = 28;
 /**
  * Word-breaking rule: no hyphenation of ordinary words, symbols, part names or values
  * ("LW-OA320", "Sallen-Key"); only a word too long for any cell (a long code or address) may be
- * broken, in pieces of 14 characters, so it can never run out of its box. A piece never ends
- * with "-" (react-pdf adds a hyphen where it breaks).
+ * broken, in pieces of about 14 characters, so it can never run out of its box.
  */
 export function breakOnlyLongWords(word: string): string[] {
   if (word.length <= LONGEST_WHOLE_WORD) return [word];
@@ -41,7 +40,8 @@ export function breakOnlyLongWords(word: string): string[] {
   let rest = word;
   while (rest.length > 14) {
     let cut = 14;
-    while (cut > 1 && /[-‐]/.test(rest[cut - 1])) cut--;
+    // Never next to a hyphen: react-pdf adds one where it breaks ("--" or a leading "-").
+    while (cut > 2 && (/[-‐]/.test(rest[cut - 1]) || /[-‐]/.test(rest[cut]))) cut--;
     pieces.push(rest.slice(0, cut));
     rest = rest.slice(cut);
   }

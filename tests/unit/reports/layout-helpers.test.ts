@@ -118,3 +118,22 @@ describe("report wording helpers", () => {
     expect(paragraphPieces(run, 60).every((p) => p.text.length <= 60)).toBe(true);
   });
 });
+
+describe("word breaking", () => {
+  it("keeps ordinary words, part names and values whole", async () => {
+    const { breakOnlyLongWords } = await import("@/pdf/fonts");
+    for (const w of ["LW-OA320", "Sallen-Key", "4.7", "kΩ", "filter.lowpass@1.3.0", "LW-7K3Q-9XPA"]) expect(breakOnlyLongWords(w)).toEqual([w]);
+  });
+
+  it("cuts only over-long tokens, never next to a hyphen, and loses no character", async () => {
+    const { breakOnlyLongWords } = await import("@/pdf/fonts");
+    const word = "HAD-2291-0042-REV-CONTROL-SHEET";
+    const pieces = breakOnlyLongWords(word);
+    expect(pieces.length).toBeGreaterThan(1);
+    expect(pieces.join("")).toBe(word);
+    for (const p of pieces) {
+      expect(p.endsWith("-")).toBe(false);
+      expect(p.startsWith("-")).toBe(false);
+    }
+  });
+});
