@@ -297,7 +297,8 @@ export const reports = sqliteTable(
 export const signingIdentities = sqliteTable("signing_identities", {
   workspaceId: text("workspace_id").primaryKey().references(() => workspaces.id, { onDelete: "cascade" }),
   certificatePem: text("certificate_pem").notNull(),
-  /** AES-256-GCM encrypted PKCS#8 private key PEM: base64(iv | tag | ciphertext). */
+  /** AES-256-GCM encrypted PKCS#8 private key PEM, key from HKDF-SHA256 of REPORT_KEY_SECRET:
+   * base64(version "v1" | salt | iv | tag | ciphertext) — see lib/reports/signing.ts. */
   encryptedKey: text("encrypted_key").notNull(),
   fingerprint: text("fingerprint").notNull(),
   createdAt: integer("created_at").notNull().default(now),
