@@ -11,12 +11,16 @@ export class ApiError extends Error {
   }
 }
 
-/** fetch a JSON route handler; throws ApiError for any non-2xx answer. */
-export async function api<T>(path: string, init?: { method?: string; body?: unknown; signal?: AbortSignal }): Promise<T> {
+/**
+ * Call a route handler: a JSON `body`, or a multipart `form` (uploads). Throws ApiError for any
+ * non-2xx answer, carrying the server's code, message and field messages.
+ */
+export async function api<T>(path: string, init?: { method?: string; body?: unknown; form?: FormData; signal?: AbortSignal }): Promise<T> {
+  const hasBody = init?.body !== undefined || init?.form !== undefined;
   const res = await fetch(path, {
-    method: init?.method ?? (init?.body !== undefined ? "POST" : "GET"),
+    method: init?.method ?? (hasBody ? "POST" : "GET"),
     headers: init?.body !== undefined ? { "content-type": "application/json" } : undefined,
-    body: init?.body !== undefined ? JSON.stringify(init.body) : undefined,
+    body: init?.form ?? (init?.body !== undefined ? JSON.stringify(init.body) : undefined),
     signal: init?.signal,
     credentials: "same-origin",
   });

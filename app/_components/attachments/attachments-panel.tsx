@@ -42,22 +42,10 @@ function typeLabel(mime: string): string {
   return (ACCEPTED_TYPES as Record<string, { label: string }>)[mime]?.label ?? mime;
 }
 
-async function uploadFile(path: string, file: File): Promise<{ attachment: AttachmentItem }> {
+function uploadFile(path: string, file: File): Promise<{ attachment: AttachmentItem }> {
   const form = new FormData();
   form.set("file", file);
-  const res = await fetch(path, { method: "POST", body: form, credentials: "same-origin" });
-  const text = await res.text();
-  let data: unknown;
-  try {
-    data = text ? JSON.parse(text) : undefined;
-  } catch {
-    data = undefined;
-  }
-  if (!res.ok) {
-    const e = (data as { error?: { code?: string; message?: string; fields?: Record<string, string> } } | undefined)?.error;
-    throw new ApiError(res.status, e?.code ?? "error", e?.message ?? `The server answered ${res.status}.`, e?.fields);
-  }
-  return data as { attachment: AttachmentItem };
+  return api<{ attachment: AttachmentItem }>(path, { form });
 }
 
 export function AttachmentsPanel({ slug, calcId, canEdit, readOnlyReason }: { slug: string; calcId: string; canEdit: boolean; readOnlyReason?: string }) {

@@ -100,7 +100,8 @@ function maximise(g: (f: number) => number, a: number, b: number): number {
   return Math.exp((x1 + x4) / 2);
 }
 
-function histogramPlot(id: string, title: string, label: string, unit: string, s: FigureStats, target: number): HistogramPlot {
+/** A Monte Carlo histogram with the usual markers (target, nominal, mean, ±3σ-equivalent percentiles). */
+export function histogramPlot(id: string, title: string, label: string, unit: string, s: FigureStats, target: number): HistogramPlot {
   return {
     kind: "histogram",
     id,

@@ -17,10 +17,11 @@ import { z } from "zod";
 import type { WorkspaceContext } from "@/lib/auth/guard";
 import { assertPackUnlocked } from "@/lib/billing/access";
 import { parseRawInputs } from "@/lib/calc/core/inputs";
-import type { HistogramPlot, RawInputs } from "@/lib/calc/core/types";
+import type { RawInputs } from "@/lib/calc/core/types";
 import { designFromInput, runMonteCarlo, type FilterDesign, type MonteCarloOptions, type MonteCarloResult } from "@/lib/calc/filter";
+import { histogramPlot } from "@/lib/calc/filter/compute";
 import type { BandpassInput, CascadeInput } from "@/lib/calc/filter/schema";
-import { MAX_MONTE_CARLO_TRIALS, type FigureStats } from "@/lib/calc/filter/tolerance";
+import { MAX_MONTE_CARLO_TRIALS } from "@/lib/calc/filter/tolerance";
 import { fieldMap, requireCalcType } from "@/lib/calculations/compute";
 import { AppError } from "@/lib/errors";
 
@@ -75,23 +76,6 @@ export function chunkSizeFor(trials: number): number {
   return Math.max(500, Math.ceil(trials / 100));
 }
 
-function histogram(id: string, title: string, label: string, unit: string, s: FigureStats, target: number): HistogramPlot {
-  return {
-    kind: "histogram",
-    id,
-    title,
-    x: { label, unit, scale: "linear" },
-    edges: s.histogram.edges,
-    counts: s.histogram.counts,
-    markers: [
-      { label: "target", value: target },
-      { label: "nominal (chosen values)", value: s.nominal },
-      { label: "mean", value: s.mean },
-      { label: "0.135 % percentile", value: s.percentiles[0].value },
-      { label: "99.865 % percentile", value: s.percentiles[4].value },
-    ],
-  };
-}
 
 /** The result line: the engine's statistics and the two histograms the sheet draws. */
 export function resultLine(job: MonteCarloJob, r: MonteCarloResult) {
@@ -109,10 +93,10 @@ export function resultLine(job: MonteCarloJob, r: MonteCarloResult) {
     gain: r.gain,
     sections: r.sections,
     plots: [
-      histogram("mc.frequency", `Monte Carlo: ${fLabel} (${r.trials.toLocaleString("en-GB")} trials)`, bp ? "Centre frequency" : "−3 dB frequency", "Hz", r.frequency, job.target.frequency),
+      histogramPlot("mc.frequency", `Monte Carlo: ${fLabel} (${r.trials.toLocaleString("en-GB")} trials)`, bp ? "Centre frequency" : "−3 dB frequency", "Hz", r.frequency, job.target.frequency),
       // No one-bin histogram for a gain no toleranced part sets (as in the filter compute).
       ...(r.gain.max - r.gain.min > 1e-9 * Math.max(Math.abs(r.gain.mean), 1e-30)
-        ? [histogram("mc.gain", `Monte Carlo: passband gain magnitude (${r.trials.toLocaleString("en-GB")} trials)`, bp ? "Centre gain" : "Passband gain", "V/V", r.gain, job.target.gain)]
+        ? [histogramPlot("mc.gain", `Monte Carlo: passband gain magnitude (${r.trials.toLocaleString("en-GB")} trials)`, bp ? "Centre gain" : "Passband gain", "V/V", r.gain, job.target.gain)]
         : []),
     ],
   };

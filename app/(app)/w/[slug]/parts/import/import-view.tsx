@@ -4,25 +4,13 @@ import Link from "next/link";
 import { useState } from "react";
 import { useQueryClient } from "@tanstack/react-query";
 import { Button, Field, Notice, Panel, Select, Tag, buttonClass, cx } from "@/app/_components/ui";
-import { ApiError } from "@/lib/api-client";
+import { api, ApiError } from "@/lib/api-client";
 import type { ImportPreview, ImportRow } from "@/lib/parts/csv";
 import type { PartKind } from "@/lib/parts/fields";
 
 /** POST a multipart form; errors arrive as ApiError like the JSON calls. */
-async function postForm<T>(path: string, form: FormData): Promise<T> {
-  const res = await fetch(path, { method: "POST", body: form, credentials: "same-origin" });
-  const text = await res.text();
-  let data: unknown;
-  try {
-    data = text ? JSON.parse(text) : undefined;
-  } catch {
-    data = undefined;
-  }
-  if (!res.ok) {
-    const e = (data as { error?: { code?: string; message?: string; fields?: Record<string, string> } } | undefined)?.error;
-    throw new ApiError(res.status, e?.code ?? "error", e?.message ?? `The server answered ${res.status}.`, e?.fields);
-  }
-  return data as T;
+function postForm<T>(path: string, form: FormData): Promise<T> {
+  return api<T>(path, { form });
 }
 
 export function ImportView({ slug, maxBytes, maxRows }: { slug: string; maxBytes: number; maxRows: number }) {
