@@ -160,7 +160,7 @@ test("gain stage: parsed inputs, live results and Bode plot, autosave, check, re
   await checker.getByRole("button", { name: "Approve" }).click();
   await checker.getByRole("dialog", { name: "Approve" }).getByRole("button", { name: "Approve" }).click();
   await expect(checker.getByTestId("calc-status")).toHaveText("Approved");
-  await expect(checker.getByRole("region", { name: "Workflow" })).toContainText("Approved by Chloe Checker");
+  await expect(checker.getByRole("region", { name: "Workflow" })).toContainText("Checked and approved by Chloe Checker");
   await expect(checker.getByRole("button", { name: "Reopen as draft" })).toBeEnabled();
   await shot(checker, "02-gain-stage-approved");
 

@@ -109,15 +109,15 @@ export function WorkflowBar({
         <dt className="inline text-ink-3">Prepared by </dt>
         <dd className="inline text-ink">{calc.preparedBy.name}</dd>
       </div>
-      {calc.checker ? (
+      {calc.checker && !(calc.approvedBy && calc.approvedAt) ? (
         <div>
-          <dt className="inline text-ink-3">{calc.status === "in_check" ? "Checker " : "Checked by "}</dt>
+          <dt className="inline text-ink-3">{calc.status === "in_check" ? "Checker " : "Last checker "}</dt>
           <dd className="inline text-ink">{calc.checker.name}</dd>
         </div>
       ) : null}
       {calc.approvedBy && calc.approvedAt ? (
         <div>
-          <dt className="inline text-ink-3">Approved by </dt>
+          <dt className="inline text-ink-3">Checked and approved by </dt>
           <dd className="inline text-ink">
             {calc.approvedBy.name} <span className="mono text-ink-3">{dateTime(calc.approvedAt)}</span>
           </dd>
