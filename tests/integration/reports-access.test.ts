@@ -124,3 +124,27 @@ describe("the client portal", () => {
     expect((r.body.error as { fields: Record<string, string> }).fields.projectId).toContain("exactly one");
   });
 });
+
+describe("a customer never loses data by not paying", () => {
+  it("after cancellation the workspace is read-only, yet calculations and issued reports stay readable and downloadable", async () => {
+    const w = await makeWorld();
+    const rep = await approveAndIssue(w);
+    const { workspaces } = await import("@/db/schema");
+    await write((db) => db.update(workspaces).set({ subscriptionStatus: "canceled", packs: [] }).where(eq(workspaces.id, w.workspaceId)));
+    const calcRoute = await import("@/app/api/w/[slug]/calculations/[calcId]/route");
+    const projectsRoute = await import("@/app/api/w/[slug]/projects/route");
+    // Reading works for staff and the client…
+    expect((await call(calcRoute.GET, { params: { slug: w.slug, calcId: w.calcId }, cookie: w.engineer.cookie })).status).toBe(200);
+    for (const who of [w.owner, w.client]) {
+      const d = await download(w, who, rep.id);
+      expect(d.status).toBe(200);
+      expect(d.bytes.subarray(0, 5).toString()).toBe("%PDF-");
+      expect((await list(w, who, `?projectId=${w.projectP}`)).status).toBe(200);
+    }
+    // …changes are refused with a clear read-only message.
+    const create = await call(projectsRoute.POST, { params: { slug: w.slug }, cookie: w.owner.cookie, body: { name: "New job" } });
+    expect(create.status).toBe(403);
+    expect((create.body.error as { code: string; message: string }).code).toBe("read_only");
+    expect((create.body.error as { message: string }).message).toMatch(/readable and downloadable/);
+  });
+});
