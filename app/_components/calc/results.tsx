@@ -52,7 +52,7 @@ export function ChecksList({ checks }: { checks: Check[] }) {
                     <span className="font-medium">{c.title}.</span> <span className={cx(sev === "pass" ? "text-ink-2" : "text-ink")}>{c.message}</span>
                   </div>
                   <span className="num mono text-[12px] text-ink-3" title="Margin to the limit (positive passes)">
-                    {typeof c.margin === "number" && Number.isFinite(c.margin) ? `${c.margin >= 0 ? "+" : "−"}${formatQuantity(Math.abs(c.margin) * 100, "%", { digits: 3 })}` : ""}
+                    {marginText(c.margin)}
                   </span>
                 </li>
               ))}
@@ -349,4 +349,12 @@ export function ResultsPad({ output, extras, className }: { output: CalcOutput; 
       ) : null}
     </div>
   );
+}
+
+/** A check's margin as a percentage; margins beyond ±999 % only say how far beyond. */
+export function marginText(margin: number | undefined): string {
+  if (typeof margin !== "number" || !Number.isFinite(margin)) return "";
+  const sign = margin >= 0 ? "+" : "−";
+  const pct = Math.abs(margin) * 100;
+  return pct > 999 ? `${margin >= 0 ? ">" : "<"}${sign}999 %` : `${sign}${formatQuantity(pct, "%", { digits: 3 })}`;
 }
