@@ -3,12 +3,12 @@
  * (tests/e2e/global-setup.ts points the fake's webhooks at the app and syncs the catalogue):
  * subscribe to two packs with 3 seats on the hosted payment page, the third pack stays locked
  * (402 from its compute route), add seats on the portal page, cancel, and the workspace turns
- * read-only while its data stays readable.
+ * read-only while its data stays readable: the calculation opens and its issued report downloads.
  */
 import { expect, test, type Page } from "@playwright/test";
 import { calcTypesOfPack } from "../../lib/calc/registry";
 import type { PackId } from "../../lib/calc/core/types";
-import { signUp, uniqueEmail } from "./support";
+import { firstLink, signIn, signUp, uniqueEmail, waitForMail } from "./support";
 
 const STRIPE = () => process.env.E2E_STRIPE_URL as string;
 
@@ -26,11 +26,30 @@ async function waitForWebhooks(): Promise<void> {
   expect(((await r.json()) as { idle: boolean }).idle).toBe(true);
 }
 
-test("subscribe to two packs, add seats in the portal, cancel: read-only, data kept", async ({ page }) => {
+test("subscribe to two packs, add seats in the portal, cancel: read-only, data kept", async ({ page, browser }) => {
   const slug = await signUp(page, { name: "Priya Principal", email: uniqueEmail("billing-owner"), password: "owner password 1", firm: "Marsh Lane Instruments" });
   await page.getByLabel("Project name").fill("Bridge amplifier for load cells");
   await page.getByRole("button", { name: "Create project" }).click();
   await expect(page.getByRole("link", { name: "Bridge amplifier for load cells" })).toBeVisible();
+
+  // During the trial, a checker joins and a calculation is prepared, approved and issued, so the
+  // cancelled workspace later has a signed report to download.
+  const checkerEmail = uniqueEmail("billing-checker");
+  expect((await page.request.post(`/api/w/${slug}/invitations`, { data: { email: checkerEmail, role: "checker" } })).status()).toBe(201);
+  const token = firstLink(await waitForMail(checkerEmail, /invited you/)).split("/invite/")[1];
+  const checkerCtx = await browser.newContext();
+  const checker = await checkerCtx.newPage();
+  expect((await checker.request.post(`/api/invitations/${token}/accept`, { data: { name: "Cole Checker", password: "checker password 1" } })).status()).toBe(201);
+  await signIn(checker, checkerEmail, "checker password 1");
+  const projectId = (((await (await page.request.get(`/api/w/${slug}/projects`)).json()) as { projects: Array<{ id: string }> }).projects)[0].id;
+  const made = (await (await page.request.post(`/api/w/${slug}/projects/${projectId}/calculations`, { data: { typeId: "amplifier.gain-stage", title: "Load-cell gain stage" } })).json()) as { calculation: { id: string; version: number } };
+  const calcId = made.calculation.id;
+  const team = ((await (await page.request.get(`/api/w/${slug}/team?role=checker`)).json()) as { team: Array<{ userId: string }> }).team;
+  expect((await page.request.post(`/api/w/${slug}/calculations/${calcId}/transitions`, { data: { action: "submit", version: 1, checkerId: team[0].userId } })).status()).toBe(200);
+  expect((await checker.request.post(`/api/w/${slug}/calculations/${calcId}/transitions`, { data: { action: "approve", version: 2 } })).status()).toBe(200);
+  const issued = await checker.request.post(`/api/w/${slug}/calculations/${calcId}/issue`, { data: { version: 3 } });
+  expect(issued.status()).toBe(201);
+  const reportId = ((await issued.json()) as { report: { id: string } }).report.id;
 
   // The trial: every pack runs, no card needed.
   await page.getByRole("navigation", { name: "Workspace sections" }).getByRole("link", { name: "Billing" }).click();
@@ -108,4 +127,12 @@ test("subscribe to two packs, add seats in the portal, cancel: read-only, data k
   const list = await page.request.get(`/api/w/${slug}/projects`);
   expect(list.status()).toBe(200);
   expect(((await list.json()) as { projects: Array<{ name: string }> }).projects.map((p) => p.name)).toEqual(["Bridge amplifier for load cells"]);
+  // The calculation still opens and its issued report still downloads, byte for byte a PDF.
+  expect((await page.request.get(`/api/w/${slug}/calculations/${calcId}`)).status()).toBe(200);
+  for (const who of [page, checker]) {
+    const pdf = await who.request.get(`/api/w/${slug}/reports/${reportId}/pdf`);
+    expect(pdf.status()).toBe(200);
+    expect((await pdf.body()).subarray(0, 5).toString()).toBe("%PDF-");
+  }
+  await checkerCtx.close();
 });
