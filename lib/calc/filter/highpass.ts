@@ -5,9 +5,8 @@
  * Engine: compute.ts; inputs: schema.ts (SI units).
  */
 import type { CalcType } from "../core/types";
-import { demoOpAmp, toRawPart } from "../core/demo-parts";
 import { computeFilter, filterTypeNetlist } from "./compute";
-import { cascadeFields, cascadeSchema } from "./schema";
+import { cascadeDefaults, cascadeFields, cascadeSchema } from "./schema";
 
 const schema = cascadeSchema("highpass");
 
@@ -20,36 +19,7 @@ export const highpassType: CalcType<typeof schema> = {
   version: "1.0.1",
   schema,
   fields: cascadeFields("highpass"),
-  defaults: {
-    response: "butterworth",
-    order: 4,
-    rippleDb: 1,
-    cutoff: "100",
-    cutoffMeaning: "-3db",
-    fixGain: true,
-    gain: "1",
-    gainSharing: "equal",
-    topology: "sk-unity",
-    firstOrder: "rc-buffer",
-    resistorLevel: "10k",
-    capSeries: "E12",
-    resSeries: "E96",
-    resTolerance: "1",
-    capTolerance: "2",
-    passbandFreq: "330",
-    passbandRippleMax: "0.5",
-    frequencyTolerance: "5",
-    gainToleranceDb: "0.5",
-    stopbandFreq: "20",
-    stopbandAttenMin: "40",
-    opamp: toRawPart(demoOpAmp("LW-OA320")),
-    supplyPos: "5",
-    supplyNeg: "0",
-    inputAmplitude: "1",
-    mcTrials: 2000,
-    mcDistribution: "uniform",
-    mcSeed: 1,
-  },
+  defaults: cascadeDefaults("highpass"),
   compute: (input) => computeFilter("highpass", input),
   netlist: (input, model) => filterTypeNetlist("highpass", input, model),
 };

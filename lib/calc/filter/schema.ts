@@ -6,7 +6,8 @@
  */
 import { z } from "zod";
 import { opAmpParamsSchema } from "../core/parts";
-import type { FieldSpec } from "../core/types";
+import type { FieldSpec, RawInputs } from "../core/types";
+import { demoOpAmp, toRawPart } from "../core/demo-parts";
 import { formatQuantity } from "../core/units";
 import { MAX_MONTE_CARLO_TRIALS } from "./tolerance";
 
@@ -159,3 +160,37 @@ export const bandpassFields: FieldSpec[] = [
   ...partAndSupplyFields,
   ...toleranceFields,
 ];
+
+/** A plausible starting design for a low-pass (1 kHz) or high-pass (100 Hz) sheet, as raw inputs. */
+export function cascadeDefaults(kind: "lowpass" | "highpass"): RawInputs {
+  return {
+    response: "butterworth",
+    order: 4,
+    rippleDb: 1,
+    cutoff: kind === "lowpass" ? "1k" : "100",
+    cutoffMeaning: "-3db",
+    fixGain: true,
+    gain: "1",
+    gainSharing: "equal",
+    topology: "sk-unity",
+    firstOrder: "rc-buffer",
+    resistorLevel: "10k",
+    capSeries: "E12",
+    resSeries: "E96",
+    resTolerance: "1",
+    capTolerance: "2",
+    passbandFreq: kind === "lowpass" ? "300" : "330",
+    passbandRippleMax: "0.5",
+    frequencyTolerance: "5",
+    gainToleranceDb: "0.5",
+    stopbandFreq: kind === "lowpass" ? "5k" : "20",
+    stopbandAttenMin: "40",
+    opamp: toRawPart(demoOpAmp("LW-OA320")),
+    supplyPos: "5",
+    supplyNeg: "0",
+    inputAmplitude: "1",
+    mcTrials: 2000,
+    mcDistribution: "uniform",
+    mcSeed: 1,
+  };
+}
