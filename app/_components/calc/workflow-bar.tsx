@@ -220,15 +220,7 @@ export function WorkflowBar({
             </label>
             <TextArea id="wf-submit-comment" rows={3} value={comment} onChange={(e) => setComment(e.target.value)} />
           </div>
-          {fieldError ? <Notice tone="error">{fieldError}</Notice> : null}
-          <div className="flex justify-end gap-2">
-            <Button type="button" variant="quiet" onClick={() => setDialog(null)}>
-              Cancel
-            </Button>
-            <Button type="submit" variant="primary" disabled={busy}>
-              {busy ? "Submitting…" : "Submit for check"}
-            </Button>
-          </div>
+          <DialogFooter error={fieldError} busy={busy} busyLabel="Submitting…" label="Submit for check" variant="primary" onCancel={() => setDialog(null)} />
         </form>
       </Dialog>
 
@@ -247,15 +239,7 @@ export function WorkflowBar({
             </label>
             <TextArea id="wf-return-comment" rows={4} value={comment} onChange={(e) => setComment(e.target.value)} aria-invalid={!!fieldError} />
           </div>
-          {fieldError ? <Notice tone="error">{fieldError}</Notice> : null}
-          <div className="flex justify-end gap-2">
-            <Button type="button" variant="quiet" onClick={() => setDialog(null)}>
-              Cancel
-            </Button>
-            <Button type="submit" variant="primary" disabled={busy}>
-              {busy ? "Returning…" : "Return to draft"}
-            </Button>
-          </div>
+          <DialogFooter error={fieldError} busy={busy} busyLabel="Returning…" label="Return to draft" variant="primary" onCancel={() => setDialog(null)} />
         </form>
       </Dialog>
 
@@ -276,15 +260,7 @@ export function WorkflowBar({
             </label>
             <TextArea id="wf-approve-comment" rows={2} value={comment} onChange={(e) => setComment(e.target.value)} />
           </div>
-          {fieldError ? <Notice tone="error">{fieldError}</Notice> : null}
-          <div className="flex justify-end gap-2">
-            <Button type="button" variant="quiet" onClick={() => setDialog(null)}>
-              Cancel
-            </Button>
-            <Button type="submit" variant="primary" disabled={busy}>
-              {busy ? "Approving…" : "Approve"}
-            </Button>
-          </div>
+          <DialogFooter error={fieldError} busy={busy} busyLabel="Approving…" label="Approve" variant="primary" onCancel={() => setDialog(null)} />
         </form>
       </Dialog>
 
@@ -322,5 +298,22 @@ export function WorkflowBar({
         {busy ? "Working…" : ""}
       </span>
     </div>
+  );
+}
+
+/** The foot of a workflow dialog: the field error, Cancel, and the submit button. */
+function DialogFooter({ error, busy, label, busyLabel, variant, onCancel }: { error: string | null | undefined; busy: boolean; label: string; busyLabel: string; variant: "primary" | "secondary" | "danger"; onCancel: () => void }) {
+  return (
+    <>
+      {error ? <Notice tone="error">{error}</Notice> : null}
+      <div className="flex justify-end gap-2">
+        <Button type="button" variant="quiet" onClick={onCancel}>
+          Cancel
+        </Button>
+        <Button type="submit" variant={variant} disabled={busy}>
+          {busy ? busyLabel : label}
+        </Button>
+      </div>
+    </>
   );
 }
